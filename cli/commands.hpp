@@ -1,0 +1,12 @@
+// zcorr CLI: one setup function per command (each in cmd_<name>.cpp).
+// Each stores its exit code in `exit_code` when the command runs.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+namespace zcorr::cli {
+
+void setup_z(CLI::App& app, int& exit_code);
+void setup_cases(CLI::App& app, int& exit_code);
+
+}  // namespace zcorr::cli

@@ -1,0 +1,98 @@
+#include "cases/case_kinds.hpp"
+
+#include <vector>
+#include <utility>
+
+#include "core/base_conditions.hpp"
+#include "eval/line_method.hpp"
+#include "io/composition_parse.hpp"
+#include "io/input_error.hpp"
+#include "io/text.hpp"
+#include "io/units_parse.hpp"
+
+namespace zcorr::cases {
+namespace {
+
+io::CompositionOptions composition_options(const RefCase& c) {
+  io::CompositionOptions opt;
+  if (c.has("fraction_unit") && c.input("fraction_unit") == "mol%") opt.unit = io::FractionUnit::mol_percent;
+  if (c.has("normalise") && c.input("normalise") == "yes") opt.normalise = true;
+  return opt;
+}
+
+// kind = unit: `text` parsed as `quantity` (pressure | temperature | volume |
+// energy), result `SI` (Pa, K, m3, J). Optional `atm` for gauge pressures.
+std::map<std::string, double> kind_unit(const RefCase& c) {
+  const auto& q = c.input("quantity");
+  const auto& text = c.input("text");
+  double v = 0.0;
+  if (q == "pressure") {
+    std::optional<double> atm;
+    if (c.has("atm")) atm = io::parse_pressure_Pa(c.input("atm"), "atm");
+    v = io::parse_pressure_Pa(text, "text", atm);
+  } else if (q == "temperature") {
+    v = io::parse_temperature_K(text, "text");
+  } else if (q == "volume") {
+    v = io::parse_volume_m3(text, "text");
+  } else if (q == "energy") {
+    v = io::parse_energy_J(text, "text");
+  } else {
+    throw io::InputError("quantity", q, "use pressure, temperature, volume or energy");
+  }
+  return {{"SI", v}};
+}
+
+// kind = state: `method`, `T`, `p` (with units), `composition`; results are
+// the method's quantities by name (Z, rho_mol_per_L, B_cm3_per_mol, ...).
+std::map<std::string, double> kind_state(const RefCase& c) {
+  auto m = method_from_name(c.input("method"));
+  if (!m) throw io::InputError("method", c.input("method"), "use gerg2008, detail, sgerg88, gross1 or gross2");
+  auto method = make_line_method(*m);
+  if (!method) throw io::InputError("method", c.input("method"), "this method is not built into this binary");
+  auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));
+  auto st = method->prepare(comp.x);
+  if (!st.ok()) throw io::InputError("composition", c.input("composition"), std::string("refused by the method: ") + code_name(st.code));
+  const double T = io::parse_temperature_K(c.input("T"), "T");
+  const double p = io::parse_pressure_Pa(c.input("p"), "p");
+  EvalOptions opt;
+  opt.derived = true;
+  auto out = method->state(T, p, opt);
+  if (!out.status.ok()) throw io::InputError("state", c.input("T") + ", " + c.input("p"), std::string("not computed: ") + code_name(out.status.code));
+  std::map<std::string, double> r;
+  for (std::size_t i = 0; i < out.q.size(); ++i)
+    if (out.has(static_cast<Quantity>(i))) r[std::string(quantity_names[i])] = out.q[i];
+  return r;
+}
+
+// kind = correction: line `p_f`, `T_f`, `Z_f`, base `p_b`, `T_b`, `Z_b`.
+std::map<std::string, double> kind_correction(const RefCase& c) {
+  const double pf = io::parse_pressure_Pa(c.input("p_f"), "p_f");
+  const double Tf = io::parse_temperature_K(c.input("T_f"), "T_f");
+  const double pb = io::parse_pressure_Pa(c.input("p_b"), "p_b");
+  const double Tb = io::parse_temperature_K(c.input("T_b"), "T_b");
+  const double Zf = io::parse_number(c.input("Z_f"), "Z_f");
+  const double Zb = io::parse_number(c.input("Z_b"), "Z_b");
+  auto f = correction_factors(pf, Tf, Zf, pb, Tb, Zb);
+  if (!f.status.ok()) throw io::InputError("correction", c.id, code_name(f.status.code));
+  return {{"Fp", f.Fp}, {"Ft", f.Ft}, {"Fz", f.Fz}, {"C", f.C}, {"Fpv", f.Fpv}};
+}
+
+// The registry: one line per kind.
+const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
+  static const std::vector<std::pair<std::string_view, KindFn>> table{
+      {"unit", kind_unit},
+      {"state", kind_state},
+      {"correction", kind_correction},
+  };
+  return table;
+}
+
+}  // namespace
+
+const KindFn* find_kind(std::string_view name) {
+  for (const auto& [n, f] : kinds())
+    if (n == name) return &f;
+  return nullptr;
+}
+
+}  // namespace zcorr::cases

@@ -1,0 +1,17 @@
+#!/usr/bin/env bash
+# Installs zcorr's build and test dependencies from Debian's packages.
+# Run as root on a Debian 12 machine (the compiler, CMake, GoogleTest and
+# Google Benchmark are assumed present; they are installed too if missing).
+set -euo pipefail
+pkgs=(g++ cmake make libgtest-dev libbenchmark-dev libboost-dev libcli11-dev nlohmann-json3-dev
+      libsqlite3-dev sqlite3 libssl-dev)
+missing=()
+for p in "${pkgs[@]}"; do
+  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+done
+if [ ${#missing[@]} -gt 0 ]; then
+  echo "zcorr: installing ${missing[*]}"
+  export DEBIAN_FRONTEND=noninteractive
+  apt-get update
+  apt-get install -y --no-install-recommends "${missing[@]}"
+fi
