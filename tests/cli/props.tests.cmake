@@ -30,3 +30,9 @@ zcorr_cli_test(NAME props_pressure_outside ARGS props --gas methane=1 --combusti
                EXPECT_EXIT 2 MATCH "--metering-p: '5 MPa' is not accepted; not computed: out_of_range")
 zcorr_cli_test(NAME props_no_gas ARGS props --combustion-ref 25 --metering-ref 0 EXPECT_EXIT 2 MATCH "--gas")
 zcorr_cli_test(NAME props_missing_refs ARGS props --gas methane=1 EXPECT_EXIT 2 MATCH "combustion-ref")
+# zcorr z --method iso6976: reference conditions only (DEVELOPERS.md contract 2).
+# Methane at 15 degC: Z 0.99802 (ISO 6976:2016 Table 2, standards notes, medium-high).
+zcorr_cli_test(NAME z_iso6976_reference ARGS z --method iso6976 --T "15 degC" --p "101.325 kPa" --gas methane=1
+               MATCH "  Z +0\\.998019")
+zcorr_cli_test(NAME z_iso6976_not_reference ARGS z --method iso6976 --T "27 degC" --p "101.325 kPa" --gas methane=1
+               EXPECT_EXIT 1 MATCH "not computed: out_of_range")
