@@ -5,6 +5,8 @@
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
 #include <cmath>
+#include <cstdlib>
+#include <new>
 #include <limits>
 #include <utility>
 #include <vector>
@@ -17,6 +19,20 @@
 using namespace zcorr;
 using namespace zcorr::iso6976;
 using mp50 = boost::multiprecision::cpp_bin_float_50;
+
+// Counts heap allocations while `counting` is set (engine rule: no heap on the
+// compute path).
+namespace {
+bool counting = false;
+std::size_t allocations = 0;
+}  // namespace
+void* operator new(std::size_t n) {
+  if (counting) ++allocations;
+  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
+  throw std::bad_alloc();
+}
+void operator delete(void* p) noexcept { std::free(p); }
+void operator delete(void* p, std::size_t) noexcept { std::free(p); }
 
 namespace {
 
@@ -417,4 +433,36 @@ TEST(Iso6976, LineMethodAtReferenceConditionsOnly) {
   ASSERT_TRUE(m->prepare(gas1()).ok());
   EXPECT_TRUE(m->state(273.15, 101325.0, EvalOptions{}).status.has(flag::doubtful_data));  // propane, butanes ...
   EXPECT_FALSE(m->prepare(Fractions<double>{}).ok());
+}
+
+// Engine rule (DEVELOPERS.md): the compute path does not allocate.
+TEST(Iso6976, ComputePathDoesNotAllocate) {
+  const auto x = gas4();
+  allocations = 0;
+  counting = true;
+  double sink = 0.0;
+  for (auto t1 : all_combustion_refs)
+    for (auto t2 : all_metering_refs) {
+      auto r = properties(x, t1, t2, 101559.0);
+      sink += r.Ws_MJ_per_m3;
+      sink += static_cast<double>(doubtful_components(x, t1, t2).count);
+    }
+  counting = false;
+  EXPECT_EQ(allocations, 0u);
+  EXPECT_GT(sink, 0.0);
+}
+
+// Hydrogen's summation factor is an effective negative value (data-set README,
+// item 5: -0.0051, low confidence), so pure hydrogen does not reproduce its own
+// tabulated Z = 1.0006; the engine computes 1 - s^2 as the method says and flags
+// the result as resting on doubtful data.
+TEST(Iso6976, HydrogenEffectiveSummationFactorIsFlagged) {
+  auto r = properties(pure(Component::hydrogen), CombustionRef::t25C, MeteringRef::t15C);
+  ASSERT_TRUE(r.status.ok());
+  EXPECT_NEAR(r.Z, 1.0 - 0.0051 * 0.0051, 1e-15);
+  EXPECT_TRUE(r.status.has(flag::doubtful_data));
+  auto list = doubtful_components(pure(Component::hydrogen), CombustionRef::t25C);
+  ASSERT_EQ(list.count, 1u);
+  EXPECT_EQ(list.rows[0].zs, Confidence::low);
+  EXPECT_FALSE(list.rows[0].hs_doubtful);  // hydrogen's 25 C gross value is high (= CODATA 285.83)
 }

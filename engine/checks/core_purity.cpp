@@ -22,6 +22,7 @@ template CorrectionFactors<double> correction_factors<double>(double, double, do
 namespace iso6976 {
 template Properties<double> properties<double>(const Fractions<double>&, CombustionRef, MeteringRef, double) noexcept;
 template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef, MeteringRef) noexcept;
 }  // namespace iso6976
 
 }  // namespace zcorr
