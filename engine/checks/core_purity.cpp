@@ -9,11 +9,20 @@
 #include "core/solve_options.hpp"
 #include "core/status.hpp"
 #include "core/units.hpp"
+#include "data/iso6976_data.hpp"
+#include "methods/iso6976.hpp"
 
 namespace zcorr {
 
 // Instantiate the templates in double so their bodies are compiled.
 template Status check_fractions<double>(const Fractions<double>&, double) noexcept;
 template CorrectionFactors<double> correction_factors<double>(double, double, double, double, double, double) noexcept;
+
+
+namespace iso6976 {
+template Properties<double> properties<double>(const Fractions<double>&, CombustionRef, MeteringRef, double) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef, MeteringRef) noexcept;
+}  // namespace iso6976
 
 }  // namespace zcorr
