@@ -386,6 +386,38 @@ template <class S>
   return -ratio * sum;
 }
 
+// alpha0 of the mixture at (T, rho): the full ideal-gas part including the
+// x_i ln x_i terms, with n0_1, n0_2 of the reference state h0 = s0 = 0 at
+// 298.15 K, 101.325 kPa (see the data header). For checks of absolute
+// Helmholtz-energy derivatives; no reported property depends on n0_1, n0_2.
+template <class S>
+[[nodiscard]] S ideal_alpha0(const Prepared<S>& p, const S& T_K, const S& rho_mol_per_m3) noexcept {
+  const S ratio = S(data::Rstar_J_per_mol_K) / S(data::R_J_per_mol_K);
+  S sum(0);
+  for (std::size_t a = 0; a < p.n_active; ++a) {
+    const std::size_t i = p.active[a];
+    const auto& ig = data::ideal_gas[i];
+    const auto& f = data::pure_fluids[i];
+    const S ti = S(f.Tc_K) / T_K;
+    S v = S(ig.n1_refstate) + S(ig.n2_refstate) * ti + S(ig.n3) * num::log_(ti);
+    auto ln_sinh = [&](double n, double vv) {
+      if (n == 0.0 || vv == 0.0) return;
+      v += S(n) * num::log_(num::abs_(detail::sinh_(S(S(vv) * ti))));
+    };
+    auto ln_cosh = [&](double n, double vv) {
+      if (n == 0.0 || vv == 0.0) return;
+      v -= S(n) * num::log_(detail::cosh_(S(S(vv) * ti)));
+    };
+    ln_sinh(ig.n4, ig.v4);
+    ln_cosh(ig.n5, ig.v5);
+    ln_sinh(ig.n6, ig.v6);
+    ln_cosh(ig.n7, ig.v7);
+    const S rhoc = S(f.rhoc_mol_per_dm3) * S(1000);
+    sum += p.x[i] * (num::log_(S(rho_mol_per_m3 / rhoc)) + ratio * v + num::log_(p.x[i]));
+  }
+  return sum;
+}
+
 // Second and third virial coefficients (reduced, i.e. times rho_r and rho_r^2)
 // and tau dB/dtau, from the limit delta -> 0 of the cached sums.
 template <class S>
