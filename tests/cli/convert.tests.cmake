@@ -2,7 +2,7 @@
 # A given Z_f and Z_b: the factors are the defining ratios (worked by hand:
 # 614.4/14.73 = 41.71079, 519.67/511.67 = 1.015635, 0.9976/0.9132 = 1.092422).
 zcorr_cli_test(NAME convert.given_z ARGS convert --zf 0.9132 --zb 0.9976 --V "45 Mcf" --T "52 degF" --p "600 psig"
-               --atm "14.4 psia" --base us60f_14.73 MATCH "Fp +41\\.71079.*Ft +1\\.01563.*Fz +1\\.09242.*\\(given\\)")
+               --atm "14.4 psia" --base us60f_14.73 MATCH "Z_f +0\\.9132 +\\(given\\).*Fp +41\\.71079.*Ft +1\\.01563.*Fz +1\\.09242")
 zcorr_cli_test(NAME convert.gerg2008 ARGS convert --method gerg2008 --gas "methane=0.95,ethane=0.03,nitrogen=0.02"
                --V "1250 m3" --T "8 degC" --p "4.2 MPa" --base iso15 MATCH "Z_f +0\\.9[0-9]+ +\\(gerg2008\\).*energy.*MJ \\(gross\\).*Hs data")
 zcorr_cli_test(NAME convert.json ARGS convert --method gerg2008 --gas "methane=0.95,ethane=0.03,nitrogen=0.02"
