@@ -9,11 +9,28 @@
 #include "core/solve_options.hpp"
 #include "core/status.hpp"
 #include "core/units.hpp"
+#include "data/sgerg88_data.hpp"
+#include "methods/aga8_gross.hpp"
+#include "methods/sgerg88.hpp"
 
 namespace zcorr {
 
 // Instantiate the templates in double so their bodies are compiled.
 template Status check_fractions<double>(const Fractions<double>&, double) noexcept;
 template CorrectionFactors<double> correction_factors<double>(double, double, double, double, double, double) noexcept;
+template sgerg88::Mixture<double> sgerg88::prepare<double>(const sgerg88::GrossInput<double>&,
+                                                           const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::State<double> sgerg88::z_factor<double>(const sgerg88::Mixture<double>&, const double&, const double&,
+                                                          const SolveOptions&) noexcept;
+template sgerg88::Virial<double> sgerg88::virial<double>(const sgerg88::Mixture<double>&, const double&) noexcept;
+template sgerg88::GrossBack<double> sgerg88::gross_of<double>(const sgerg88::Mixture<double>&) noexcept;
+template sgerg88::Mixture<double> aga8_gross::prepare_method1<double>(const aga8_gross::Method1Input<double>&,
+                                                                      const aga8_gross::ReferenceConditions&,
+                                                                      const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::Mixture<double> aga8_gross::prepare_method2<double>(const aga8_gross::Method2Input<double>&,
+                                                                      const aga8_gross::ReferenceConditions&,
+                                                                      const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::State<double> aga8_gross::z_factor<double>(const sgerg88::Mixture<double>&, const double&,
+                                                             const double&, const SolveOptions&) noexcept;
 
 }  // namespace zcorr
