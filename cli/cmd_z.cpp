@@ -159,6 +159,8 @@ int run_batch(const ZOptions& o) {
                              "expected " + std::to_string(header.size()));
       const double T = io::parse_number(row[static_cast<std::size_t>(col_T)], "T_K");
       const double P = io::parse_number(row[static_cast<std::size_t>(col_P)], "P_kPa");
+      if (!(T > 0.0)) throw io::InputError("T_K", row[static_cast<std::size_t>(col_T)], "the temperature must be above 0 K");
+      if (!(P >= 0.0)) throw io::InputError("P_kPa", row[static_cast<std::size_t>(col_P)], "the absolute pressure must be >= 0 kPa");
       Fractions<double> x{};
       for (std::size_t i = 0; i < max_components; ++i)
         if (col_x[i] >= 0 && !io::trim(row[static_cast<std::size_t>(col_x[i])]).empty())

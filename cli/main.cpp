@@ -13,7 +13,9 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   int exit_code = 0;
   zcorr::cli::setup_z(app, exit_code);
+  zcorr::cli::setup_convert(app, exit_code);
   zcorr::cli::setup_cases(app, exit_code);
+  zcorr::cli::setup_demo(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {
