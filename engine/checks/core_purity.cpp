@@ -9,8 +9,10 @@
 #include "core/solve_options.hpp"
 #include "core/status.hpp"
 #include "core/units.hpp"
+#include "data/iso6976_data.hpp"
 #include "data/sgerg88_data.hpp"
 #include "methods/aga8_gross.hpp"
+#include "methods/iso6976.hpp"
 #include "methods/sgerg88.hpp"
 
 namespace zcorr {
@@ -32,5 +34,11 @@ template sgerg88::Mixture<double> aga8_gross::prepare_method2<double>(const aga8
                                                                       const sgerg88::CharacterizationOptions&) noexcept;
 template sgerg88::State<double> aga8_gross::z_factor<double>(const sgerg88::Mixture<double>&, const double&,
                                                              const double&, const SolveOptions&) noexcept;
+
+
+namespace iso6976 {
+template Properties<double> properties<double>(const Fractions<double>&, CombustionRef, MeteringRef, double) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
+}  // namespace iso6976
 
 }  // namespace zcorr
