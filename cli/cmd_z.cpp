@@ -66,11 +66,11 @@ std::vector<Quantity> extra_columns(const ZOptions& o) {
 
 int run_single(const ZOptions& o) {
   if (o.T.empty() || o.p.empty()) throw io::InputError("--T/--p", o.T + "/" + o.p, "give both --T and --p (or --input FILE.csv)");
+  const bool gross_route = o.gross.given();
+  if (const auto named = method_from_name(o.method.method); gross_route && named && !is_gross_method(*named))
+    throw io::InputError("--method", o.method.method, "gross inputs (--Hs, --d, --x-...) need sgerg88, gross1 or gross2");
   auto method = o.method.make();
   const MethodId id = method->id();
-  const bool gross_route = o.gross.given();
-  if (gross_route && !is_gross_method(id))
-    throw io::InputError("--method", o.method.method, "gross inputs (--Hs, --d, --x-...) need sgerg88, gross1 or gross2");
   if (gross_route && o.gas.given())
     throw io::InputError("--gas", "with gross inputs", "give either a gas analysis or gross inputs, not both");
   io::ParsedComposition comp{};
