@@ -5,10 +5,13 @@
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
 #include <cmath>
+#include <cstdlib>
+#include <new>
 #include <limits>
 #include <utility>
 #include <vector>
 
+#include "eval/line_method.hpp"
 #include "io/input_error.hpp"
 #include "io/iso6976_refs.hpp"
 #include "methods/iso6976.hpp"
@@ -16,6 +19,20 @@
 using namespace zcorr;
 using namespace zcorr::iso6976;
 using mp50 = boost::multiprecision::cpp_bin_float_50;
+
+// Counts heap allocations while `counting` is set (engine rule: no heap on the
+// compute path).
+namespace {
+bool counting = false;
+std::size_t allocations = 0;
+}  // namespace
+void* operator new(std::size_t n) {
+  if (counting) ++allocations;
+  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
+  throw std::bad_alloc();
+}
+void operator delete(void* p) noexcept { std::free(p); }
+void operator delete(void* p, std::size_t) noexcept { std::free(p); }
 
 namespace {
 
@@ -364,4 +381,88 @@ TEST(Iso6976, ReferenceTemperatureText) {
   EXPECT_THROW((void)io::parse_combustion_ref("16", "t1"), io::InputError);
   EXPECT_THROW((void)io::parse_combustion_ref("abc", "t1"), io::InputError);
   EXPECT_THROW((void)io::parse_combustion_ref("", "t1"), io::InputError);
+}
+
+// The summation-factor Z is the virial expansion truncated after B, so
+// B = (Z - 1) R T / p0 must match the second virial coefficients of the pure-fluid
+// reference equations of state. Source: project standards notes, "Second virial
+// coefficients" at 250/300/350 K (Setzmann-Wagner 1991 methane, Span 2000 nitrogen,
+// Span-Wagner 1996 CO2, Buecker-Wagner 2006 ethane; stated +/-1-2 %), interpolated
+// here to 273.15-293.15 K by a quadratic in 1/T through the three points (adds a
+// few tenths of a cm3/mol). Tolerance: 2.5 % of B plus 0.5 cm3/mol.
+TEST(Iso6976, SecondVirialFromSummationFactorsMatchesReferenceEquations) {
+  struct Row { Component c; std::array<double, 3> B; };
+  const std::array<Row, 4> rows{{{Component::methane, {-65.68, -42.21, -26.61}},
+                                 {Component::nitrogen, {-16.44, -4.55, 3.43}},
+                                 {Component::carbon_dioxide, {-184.0, -121.3, -84.4}},
+                                 {Component::ethane, {-264.0, -182.6, -131.2}}}};
+  const std::array<double, 3> T{250.0, 300.0, 350.0};
+  double worst = 0.0;
+  for (const auto& row : rows)
+    for (auto t2 : all_metering_refs) {
+      const double Tk = temperature_K(t2);
+      double B_eos = 0.0;
+      for (std::size_t i = 0; i < 3; ++i) {
+        double w = 1.0;
+        for (std::size_t j = 0; j < 3; ++j)
+          if (j != i) w *= (1.0 / Tk - 1.0 / T[j]) / (1.0 / T[i] - 1.0 / T[j]);
+        B_eos += row.B[i] * w;
+      }
+      auto r = properties(pure(row.c), CombustionRef::t25C, t2);
+      const double B = (r.Z - 1.0) * data::R_J_per_mol_K * Tk / data::p0_Pa * 1e6;
+      worst = std::max(worst, std::abs(B / B_eos - 1.0));
+      EXPECT_NEAR(B, B_eos, 0.025 * std::abs(B_eos) + 0.5) << component_name(index(row.c)) << " at " << Tk << " K";
+    }
+  RecordProperty("worst_relative_B_deviation", std::to_string(worst));
+}
+
+// The runtime method `iso6976` (reference conditions only; DEVELOPERS.md contract 2).
+TEST(Iso6976, LineMethodAtReferenceConditionsOnly) {
+  auto m = make_line_method(MethodId::iso6976);
+  ASSERT_NE(m, nullptr);
+  ASSERT_TRUE(m->prepare(pure(Component::methane)).ok());
+  auto s = m->state(288.15, 101325.0, EvalOptions{});
+  ASSERT_TRUE(s.status.ok());
+  // ISO 6976:2016 Table 2, methane at 15 C (standards notes; medium-high).
+  EXPECT_NEAR(s[Quantity::Z], 0.99802, 1e-6);
+  EXPECT_FALSE(s.status.has(flag::doubtful_data));  // methane's Z/s row is medium-high
+  EXPECT_NEAR(s[Quantity::rho_mol_per_L], 101325.0 / (s[Quantity::Z] * data::R_J_per_mol_K * 288.15) / 1000.0, 1e-15);
+  EXPECT_TRUE(m->state(300.0, 101325.0, EvalOptions{}).status.code == Code::out_of_range);  // not a reference temperature
+  EXPECT_TRUE(m->state(288.15, 5.0e6, EvalOptions{}).status.code == Code::out_of_range);   // not a reference pressure
+  EXPECT_TRUE(m->state(std::nan(""), 101325.0, EvalOptions{}).status.code == Code::invalid_temperature);
+  ASSERT_TRUE(m->prepare(gas1()).ok());
+  EXPECT_TRUE(m->state(273.15, 101325.0, EvalOptions{}).status.has(flag::doubtful_data));  // propane, butanes ...
+  EXPECT_FALSE(m->prepare(Fractions<double>{}).ok());
+}
+
+// Engine rule (DEVELOPERS.md): the compute path does not allocate.
+TEST(Iso6976, ComputePathDoesNotAllocate) {
+  const auto x = gas4();
+  allocations = 0;
+  counting = true;
+  double sink = 0.0;
+  for (auto t1 : all_combustion_refs)
+    for (auto t2 : all_metering_refs) {
+      auto r = properties(x, t1, t2, 101559.0);
+      sink += r.Ws_MJ_per_m3;
+      sink += static_cast<double>(doubtful_components(x, t1, t2).count);
+    }
+  counting = false;
+  EXPECT_EQ(allocations, 0u);
+  EXPECT_GT(sink, 0.0);
+}
+
+// Hydrogen's summation factor is an effective negative value (data-set README,
+// item 5: -0.0051, low confidence), so pure hydrogen does not reproduce its own
+// tabulated Z = 1.0006; the engine computes 1 - s^2 as the method says and flags
+// the result as resting on doubtful data.
+TEST(Iso6976, HydrogenEffectiveSummationFactorIsFlagged) {
+  auto r = properties(pure(Component::hydrogen), CombustionRef::t25C, MeteringRef::t15C);
+  ASSERT_TRUE(r.status.ok());
+  EXPECT_NEAR(r.Z, 1.0 - 0.0051 * 0.0051, 1e-15);
+  EXPECT_TRUE(r.status.has(flag::doubtful_data));
+  auto list = doubtful_components(pure(Component::hydrogen), CombustionRef::t25C);
+  ASSERT_EQ(list.count, 1u);
+  EXPECT_EQ(list.rows[0].zs, Confidence::low);
+  EXPECT_FALSE(list.rows[0].hs_doubtful);  // hydrogen's 25 C gross value is high (= CODATA 285.83)
 }

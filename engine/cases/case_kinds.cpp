@@ -48,7 +48,7 @@ std::map<std::string, double> kind_unit(const RefCase& c) {
 // the method's quantities by name (Z, rho_mol_per_L, B_cm3_per_mol, ...).
 std::map<std::string, double> kind_state(const RefCase& c) {
   auto m = method_from_name(c.input("method"));
-  if (!m) throw io::InputError("method", c.input("method"), "use gerg2008, detail, sgerg88, gross1 or gross2");
+  if (!m) throw io::InputError("method", c.input("method"), "use gerg2008, detail, sgerg88, gross1, gross2 or iso6976 (reference conditions only)");
   auto method = make_line_method(*m);
   if (!method) throw io::InputError("method", c.input("method"), "this method is not built into this binary");
   auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));

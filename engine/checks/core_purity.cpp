@@ -13,6 +13,7 @@
 #include "data/sgerg88_data.hpp"
 #include "methods/aga8_gross.hpp"
 #include "methods/iso6976.hpp"
+#include "methods/gerg2008.hpp"
 #include "methods/sgerg88.hpp"
 
 namespace zcorr {
@@ -20,6 +21,15 @@ namespace zcorr {
 // Instantiate the templates in double so their bodies are compiled.
 template Status check_fractions<double>(const Fractions<double>&, double) noexcept;
 template CorrectionFactors<double> correction_factors<double>(double, double, double, double, double, double) noexcept;
+template Status gerg2008::prepare<double>(const Fractions<double>&, gerg2008::Prepared<double>&) noexcept;
+template gerg2008::Properties<double> gerg2008::state<double>(const gerg2008::Prepared<double>&, const double&, const double&,
+                                                              const SolveOptions&, bool) noexcept;
+template gerg2008::Properties<double> gerg2008::properties_at_density<double>(const gerg2008::Prepared<double>&, const double&,
+                                                                              const double&) noexcept;
+template ZResult<double> gerg2008::z_factor<double>(const gerg2008::Prepared<double>&, const double&, const double&,
+                                                    const SolveOptions&) noexcept;
+template gerg2008::Residual<double> gerg2008::alphar<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
+template double gerg2008::pressure_Pa<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
 template sgerg88::Mixture<double> sgerg88::prepare<double>(const sgerg88::GrossInput<double>&,
                                                            const sgerg88::CharacterizationOptions&) noexcept;
 template sgerg88::State<double> sgerg88::z_factor<double>(const sgerg88::Mixture<double>&, const double&, const double&,
@@ -39,6 +49,7 @@ template sgerg88::State<double> aga8_gross::z_factor<double>(const sgerg88::Mixt
 namespace iso6976 {
 template Properties<double> properties<double>(const Fractions<double>&, CombustionRef, MeteringRef, double) noexcept;
 template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef, MeteringRef) noexcept;
 }  // namespace iso6976
 
 }  // namespace zcorr

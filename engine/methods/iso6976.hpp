@@ -35,6 +35,12 @@
 // They would flag every result, so they do not set the flag; doubtful_constants()
 // reports them and output that shows net values, d or W must say so.
 //
+// Hydrogen and helium: their s are effective values (-0.0051 and 0, low
+// confidence), fitted to the mixtures' cross terms, not sqrt(1 - Z). A gas rich
+// in them therefore does not reproduce their pure-component Z: pure hydrogen
+// comes out 0.99997 against the tabulated 1.0006. The data set found hydrogen
+// blends up to 0.30 within 7e-5 of GERG-2008. Both rows set doubtful_data.
+//
 // The US customary route (GPA 2172 with GPA 2145 data at 60 F / 14.696 psia) is
 // NOT implemented: its tables are not known here reliably. For US base
 // conditions use MeteringRef::t15_55C with p2 = 14.73 or 14.696 psia (ISO 6976
@@ -166,6 +172,13 @@ template <class S>
     if (z || h) out.rows[out.count++] = DoubtfulRow{c, rc.zs, rc.hs, z, h};
   }
   return out;
+}
+
+// The same list for a (t1, t2) pair: a Z/s row has one confidence for every
+// metering temperature, so t2 does not change it (kept for callers that have both).
+template <class S>
+[[nodiscard]] DoubtfulRows doubtful_components(const Fractions<S>& x, CombustionRef t1, MeteringRef /*t2*/) noexcept {
+  return doubtful_components(x, t1);
 }
 
 // Constants below medium-high that a result at (t1, t2) uses.
