@@ -42,8 +42,8 @@ namespace {
 
 // ---- the GERG-2008 reference states ----------------------------------------
 // Source: GERG-2008 reference states, teqp strict model, shared data set
-// gerg2008-reference (tests/data/gerg2008_reference_states.csv, provenance in
-// tests/data/gerg2008_reference_states.README.md).
+// gerg2008-reference (tests/data/gerg2008/states.csv, provenance in
+// tests/data/gerg2008/README.md).
 struct RefState {
   std::string id, gas;
   double T_K = 0, P_kPa = 0, Z = 0, B = 0;
@@ -53,7 +53,7 @@ struct RefState {
 const std::vector<RefState>& reference_states() {
   static const std::vector<RefState> states = [] {
     std::vector<RefState> out;
-    std::ifstream f(std::string(ZCORR_SOURCE_DIR) + "/tests/data/gerg2008_reference_states.csv");
+    std::ifstream f(std::string(ZCORR_SOURCE_DIR) + "/tests/data/gerg2008/states.csv");
     io::CsvReader r(f);
     std::vector<std::string> head, row;
     if (!r.next(head)) return out;
