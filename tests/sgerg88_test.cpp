@@ -114,7 +114,7 @@ Stats stats_of(std::vector<Deviation> d) {
 
 void print_largest(const char* title, std::vector<Deviation> d, std::size_t k) {
   std::sort(d.begin(), d.end(), [](const Deviation& a, const Deviation& b) { return std::abs(a.dev) > std::abs(b.dev); });
-  std::printf("%s: largest deviations Z_method/Z_GERG - 1\n", title);
+  std::printf("%s: largest deviations Z_method/Z_reference - 1\n", title);
   std::printf("  %-22s %9s %8s %10s %8s %8s %8s %8s\n", "state", "dev", "T_K", "P_kPa", "x_C2", "x_C3+", "C2/C3+", "x_CO2");
   for (std::size_t i = 0; i < std::min(k, d.size()); ++i) {
     const auto& s = *d[i].s;
