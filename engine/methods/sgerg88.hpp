@@ -389,7 +389,7 @@ template <class S>
   const Status keep = s.status;
   s = detail::solve(m, T_K, S(p_Pa / S(1000)), opt);
   s.status.range = keep.range;
-  s.status.flags |= keep.flags;
+  s.status.flags |= keep.flags | m.status.flags;
   return s;
 }
 
