@@ -448,6 +448,22 @@ TEST(Gerg2008Status, NoGasRootAndTwoPhase) {
   EXPECT_TRUE(gerg2008::state(p, 150.0, 0.5e6).status.ok());
   EXPECT_EQ(gerg2008::state(p, 150.0, 5e6).status.code, Code::no_gas_root);
   EXPECT_EQ(gerg2008::state(p, 150.0, 1.2e6).status.code, Code::two_phase);
+  // Saturation pressures (from memory, NIST Chemistry WebBook values, about 1 %):
+  // CO2 at 280 K 4.16 MPa, propane at 300 K 1.00 MPa, nitrogen at 110 K 1.47 MPa.
+  // Below them the gas is stable, a little above them the gas root is metastable.
+  const auto co2 = prepared<double>(pure(Component::carbon_dioxide));
+  EXPECT_TRUE(gerg2008::state(co2, 280.0, 4.0e6).status.ok());
+  EXPECT_EQ(gerg2008::state(co2, 280.0, 4.3e6).status.code, Code::two_phase);
+  EXPECT_EQ(gerg2008::state(co2, 280.0, 6e6).status.code, Code::no_gas_root);
+  const auto c3 = prepared<double>(pure(Component::propane));
+  EXPECT_TRUE(gerg2008::state(c3, 300.0, 0.95e6).status.ok());
+  EXPECT_EQ(gerg2008::state(c3, 300.0, 1.05e6).status.code, Code::two_phase);
+  const auto n2 = prepared<double>(pure(Component::nitrogen));
+  EXPECT_TRUE(gerg2008::state(n2, 110.0, 1.4e6).status.ok());
+  EXPECT_EQ(gerg2008::state(n2, 110.0, 1.55e6).status.code, Code::two_phase);
+  // Every low-pressure state below the saturation pressure is gas (regression: spurious
+  // loops of the pure-fluid equation inside the dome once made some of them two_phase).
+  for (double P = 0.1e6; P < 1.0e6; P += 0.01e6) EXPECT_TRUE(gerg2008::state(p, 150.0, P).status.ok()) << P;
   // and every such outcome also in 50 digits
   const auto pm = prepared<mp>(pure(Component::methane));
   EXPECT_EQ(gerg2008::state(pm, mp(150), mp(5e6)).status.code, Code::no_gas_root);
