@@ -769,6 +769,8 @@ template <class S>
   }
   // Z = p / (rho R T) from the solved density (equals 1 + delta alpha_r_delta at the root).
   out.Z = P > S(0) ? S(P / delta) : S(1);
+  if (out.status.ok() && (!num::isfinite_(out.Z) || !(out.Z > S(0)) || !num::isfinite_(rho)))
+    out.status.code = Code::no_convergence;  // far outside every range the equation can overflow
   return out;
 }
 
