@@ -531,3 +531,65 @@ TEST(Gerg2008Solver, FindsTheFirstGasRootOfAFineScan) {
   }
   EXPECT_GT(checked, 50);
 }
+
+// Same identity check for rich mixtures (CO2 up to 0.6, ethane up to 0.3, propane
+// up to 0.1, hydrogen up to 0.5) at 220-340 K and 0.1-15 MPa, where the states
+// include T < T_r and states past the end of the gas branch: ok must be the first
+// scanned root, no_gas_root must mean the scan meets dp/ddelta <= 0 before any root.
+TEST(Gerg2008Solver, RichMixturesAgreeWithTheScan) {
+  std::uint32_t seed = 777;
+  auto u = [&] {
+    seed = seed * 1664525u + 1013904223u;
+    return static_cast<double>(seed >> 8) / 16777216.0;
+  };
+  const int gases = ZCORR_SLOW_TESTS ? 400 : 8;
+  const int scan = 2000;
+  const double dmax = 4.0;
+  int ok = 0, none = 0;
+  for (int g = 0; g < gases; ++g) {
+    Fractions<double> x{};
+    x[index(Component::carbon_dioxide)] = 0.6 * u();
+    x[index(Component::ethane)] = 0.3 * u();
+    x[index(Component::propane)] = 0.1 * u();
+    x[index(Component::n_butane)] = 0.03 * u();
+    x[index(Component::isobutane)] = 0.03 * u();
+    x[index(Component::nitrogen)] = 0.3 * u();
+    x[index(Component::hydrogen)] = u() < 0.5 ? 0.5 * u() : 0.0;
+    x[index(Component::n_pentane)] = 0.01 * u();
+    x[index(Component::n_hexane)] = 0.003 * u();
+    double s = 0;
+    for (double v : x) s += v;
+    if (s > 0.95) continue;
+    x[index(Component::methane)] = 1.0 - s;
+    const auto p = prepared<double>(x);
+    for (double T = 220; T <= 340; T += 30)
+      for (double P = 1e5; P <= 15e6; P += 1.1e6) {
+        const auto r = gerg2008::state(p, T, P);
+        gerg2008::TauCache<double> c;
+        gerg2008::fill_temperature_cache(p, T, c);
+        const double Pr = P / (p.rhor_mol_per_m3 * gerg2008::R<double>() * T);
+        double first = -1;
+        for (int k = 1; k <= scan; ++k) {
+          const double d = dmax * k / scan;
+          const auto a = gerg2008::residual(p, c, d);
+          if (d * (1 + a.d1) - Pr >= 0) { first = d; break; }
+          if (!(1 + 2 * a.d1 + a.d2 > 0)) break;
+        }
+        if (r.status.ok()) {
+          ++ok;
+          const double dr = r.rho_mol_per_m3 / p.rhor_mol_per_m3;
+          ASSERT_GT(first, 0.0) << "gas " << g << " T " << T << " P " << P;
+          EXPECT_LE(dr, first + 1e-12);
+          EXPECT_GT(dr, first - dmax / scan);
+        } else if (r.status.code == Code::no_gas_root) {
+          ++none;
+          EXPECT_LT(first, 0.0) << "gas " << g << " T " << T << " P " << P;
+        } else {
+          EXPECT_EQ(r.status.code, Code::two_phase) << "gas " << g << " T " << T << " P " << P;
+          EXPECT_GT(first, 0.0);
+        }
+      }
+  }
+  EXPECT_GT(ok, 50);
+  EXPECT_GT(none, 0);  // the sweep does reach past the gas branch
+}

@@ -152,7 +152,7 @@ struct Properties {
   S dpdrho_T{};           // (dp/drho)_T, J/mol
   S dpdT_rho{};           // (dp/dT)_rho, Pa/K
   Status status{};
-  int iterations = 0;
+  int iterations = 0;  // evaluations of alpha_r in the density solve (scan points included)
 };
 
 // ---------------------------------------------------------------------------
@@ -726,17 +726,22 @@ template <class S>
   S delta(0);
   Residual<S> r;
   if (P > S(0)) {
-    // Fast path: safeguarded Newton from the virial equation truncated after B
-    // (ideal gas when that has no root). Above the reducing temperature the
-    // equation has no loop in the gas region and the root found is the gas root.
-    const auto v = reduced_virial(p, c);
-    const S disc = S(1) + S(4) * v.B * P;
-    delta = disc > S(0) ? S(S(2) * P / (S(1) + num::sqrt_(disc))) : P;
-    if (!(delta > S(0)) || delta >= S(delta_search_max)) delta = P < S(delta_search_max) ? P : S(delta_search_max / 2);
-    auto rr = detail::solve_delta(p, c, P, S(0), S(delta_search_max), delta, opt, r);
-    out.iterations = rr.iterations;
-    if (!(rr.found && T_K >= p.Tr_K)) {
-      // Slow path (below T_r, or the fast path failed): scan the gas branch.
+    // Fast path (T >= T_r): safeguarded Newton from the virial equation truncated
+    // after B (ideal gas when that has no root). At these temperatures the root
+    // found is the first root of the gas branch (checked against a fine scan for
+    // random natural-gas-like and CO2/ethane/hydrogen-rich mixtures in
+    // tests/gerg2008_test.cpp, Gerg2008Solver).
+    detail::RootResult rr;
+    if (T_K >= p.Tr_K) {
+      const auto v = reduced_virial(p, c);
+      const S disc = S(1) + S(4) * v.B * P;
+      delta = disc > S(0) ? S(S(2) * P / (S(1) + num::sqrt_(disc))) : P;
+      if (!(delta > S(0)) || delta >= S(delta_search_max)) delta = P < S(delta_search_max) ? P : S(delta_search_max / 2);
+      rr = detail::solve_delta(p, c, P, S(0), S(delta_search_max), delta, opt, r);
+      out.iterations = rr.iterations;
+    }
+    if (!rr.found) {
+      // Slow path (below T_r, or the fast path failed): scan the gas and liquid branches.
       const auto sc = detail::scan_phases(p, c, P, opt);
       out.iterations += sc.iterations;
       if (sc.capped) {
