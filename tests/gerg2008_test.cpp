@@ -17,6 +17,7 @@
 #include "io/csv.hpp"
 #include "io/text.hpp"
 #include "methods/gerg2008.hpp"
+#include "support/sample_gases.hpp"
 
 using namespace zcorr;
 using mp = boost::multiprecision::cpp_bin_float_50;
@@ -86,23 +87,7 @@ Fractions<double> pure(Component c) {
   return x;
 }
 
-// A 12-component pipeline gas (fictional analysis, mole fractions summing to 1).
-Fractions<double> pipeline_gas() {
-  Fractions<double> x{};
-  x[index(Component::methane)] = 0.9;
-  x[index(Component::nitrogen)] = 0.02;
-  x[index(Component::carbon_dioxide)] = 0.015;
-  x[index(Component::ethane)] = 0.045;
-  x[index(Component::propane)] = 0.012;
-  x[index(Component::n_butane)] = 0.002;
-  x[index(Component::isobutane)] = 0.002;
-  x[index(Component::n_pentane)] = 0.0008;
-  x[index(Component::isopentane)] = 0.0007;
-  x[index(Component::n_hexane)] = 0.0004;
-  x[index(Component::hydrogen)] = 0.0015;
-  x[index(Component::helium)] = 0.0006;
-  return x;
-}
+Fractions<double> pipeline_gas() { return samples::pipeline_gas_12(); }
 
 double rel(double a, double b) { return std::abs(a / b - 1.0); }
 mp rel(const mp& a, const mp& b) { return abs(a / b - 1); }
