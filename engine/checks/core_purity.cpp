@@ -9,11 +9,14 @@
 #include "core/solve_options.hpp"
 #include "core/status.hpp"
 #include "core/units.hpp"
+#include "methods/detail.hpp"
 
 namespace zcorr {
 
 // Instantiate the templates in double so their bodies are compiled.
 template Status check_fractions<double>(const Fractions<double>&, double) noexcept;
 template CorrectionFactors<double> correction_factors<double>(double, double, double, double, double, double) noexcept;
+template Status aga8_detail::prepare<double>(const Fractions<double>&, aga8_detail::Prepared<double>&) noexcept;
+template aga8_detail::StateResult<double> aga8_detail::evaluate<double>(const aga8_detail::Prepared<double>&, const double&, const double&, const SolveOptions&, bool) noexcept;
 
 }  // namespace zcorr

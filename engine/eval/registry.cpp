@@ -5,9 +5,11 @@
 namespace zcorr {
 
 // Factories of the methods built into this binary (defined in <method>_adapter.cpp).
+std::unique_ptr<LineMethod> make_detail_method();
 
 std::unique_ptr<LineMethod> make_line_method(MethodId m) {
   switch (m) {
+    case MethodId::detail: return make_detail_method();
     default: break;
   }
   return nullptr;
