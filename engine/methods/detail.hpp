@@ -103,6 +103,25 @@ struct TermGroups {
   return g;
 }
 inline constexpr TermGroups groups = make_groups();
+
+// Terms 13..58 listed group by group: group g holds terms order[start[g]] ..
+// order[start[g + 1] - 1], so each group sum stays in a register.
+struct GroupOrder {
+  std::array<std::uint8_t, n_terms> order{};
+  std::array<std::uint8_t, n_terms + 1> start{};
+};
+[[nodiscard]] constexpr GroupOrder make_group_order() noexcept {
+  GroupOrder o{};
+  std::size_t k = 0;
+  for (std::size_t g = 0; g < groups.count; ++g) {
+    o.start[g] = static_cast<std::uint8_t>(k);
+    for (std::size_t n = 12; n < n_terms; ++n)
+      if (groups.group_of[n] == g) o.order[k++] = static_cast<std::uint8_t>(n);
+  }
+  o.start[groups.count] = static_cast<std::uint8_t>(k);
+  return o;
+}
+inline constexpr GroupOrder group_order = make_group_order();
 inline constexpr std::size_t max_groups = n_terms - first_c_term;
 
 // Largest |2 u_n| over the terms [first, last) with u_n < 0, and largest 2 u_n
@@ -121,19 +140,20 @@ inline constexpr std::size_t max_groups = n_terms - first_c_term;
 // x^(m/2) for m in [-Down, Up], from one square root and products.
 template <class S, int Up = max_pos_u2(0, n_terms), int Down = max_neg_u2(0, n_terms)>
 struct HalfPowers {
-  std::array<S, static_cast<std::size_t>(Up) + 1> up{};
-  std::array<S, static_cast<std::size_t>(Down) + 1> down{};
+  std::array<S, static_cast<std::size_t>(Up + Down) + 1> v;  // v[Down + m] = x^(m/2); filled by set()
   void set(const S& x) noexcept {
+    constexpr std::size_t z = static_cast<std::size_t>(Down);
     const S h = num::sqrt_(x);
-    const S hi = S(1) / h;
-    up[0] = S(1);
-    down[0] = S(1);
-    for (std::size_t m = 1; m < up.size(); ++m) up[m] = up[m - 1] * h;
-    for (std::size_t m = 1; m < down.size(); ++m) down[m] = down[m - 1] * hi;
+    v[z] = S(1);
+    // x^(m/2) = x^(floor(m/2)/2) * x^(ceil(m/2)/2): a product tree of depth
+    // log2(m), not a chain of m dependent multiplications (faster, and the
+    // rounding error grows with log2(m) only).
+    if constexpr (Up > 0) v[z + 1] = h;
+    for (std::size_t m = 2; m <= static_cast<std::size_t>(Up); ++m) v[z + m] = v[z + (m >> 1)] * v[z + m - (m >> 1)];
+    if constexpr (Down > 0) v[z - 1] = S(1) / h;
+    for (std::size_t m = 2; m <= z; ++m) v[z - m] = v[z - (m >> 1)] * v[z - (m - (m >> 1))];
   }
-  [[nodiscard]] const S& operator()(int m2) const noexcept {
-    return m2 >= 0 ? up[static_cast<std::size_t>(m2)] : down[static_cast<std::size_t>(-m2)];
-  }
+  [[nodiscard]] const S& operator()(int m2) const noexcept { return v[static_cast<std::size_t>(m2 + Down)]; }
 };
 // Powers needed by the second-virial terms 1..18 only.
 template <class S>
@@ -423,47 +443,48 @@ struct AtTemperature {
   S B{}, dBdT{};          // dm^3/mol, dm^3/(mol K)
   S S1{}, dS1dT{};        // sum_{13}^{18} C*_n and its T derivative
   S C{};                  // third virial coefficient, dm^6/mol^2
-  std::array<S, max_groups> A{}, dAdT{};  // C*_n summed per density group
+  std::array<S, groups.count> A, dAdT;  // C*_n summed per density group (all written by at_temperature)
 };
 
 template <class S>
-void at_temperature(const Prepared<S>& pr, const S& T_K, AtTemperature<S>& at) noexcept {
+void at_temperature(const Prepared<S>& pr, const S& T_K, AtTemperature<S>& at, bool want_T = true) noexcept {
   using namespace detail_data;
   at.T = T_K;
   at.RT = gas_constant<S>() * T_K;
   HalfPowers<S> tp;
   tp.set(S(S(1) / T_K));  // tp(2u) = T^-u
-  const S invT = S(1) / T_K;
-  at.B = S(0);
-  at.dBdT = S(0);
+  const S half_invT = S(1) / (S(2) * T_K);  // d(T^-u)/dT = -(2u) T^-u / (2T)
+  // Local accumulators: the sums stay in registers.
+  S B(0), dB(0), S1(0), dS1(0);
   for (std::size_t t = 0; t < n_b_terms; ++t) {
     const S v = pr.Bn[t] * tp(terms[t].u2);
-    at.B += v;
-    at.dBdT -= v * S(terms[t].u2) / S(2);
+    B += v;
+    if (want_T) dB -= v * S(terms[t].u2);
   }
-  at.dBdT *= invT;
-  at.S1 = S(0);
-  at.dS1dT = S(0);
-  for (std::size_t g = 0; g < groups.count; ++g) {
-    at.A[g] = S(0);
-    at.dAdT[g] = S(0);
-  }
-  for (std::size_t t = first_c_term; t < n_terms; ++t) {
+  for (std::size_t t = first_c_term; t < n_b_terms; ++t) {
     const S v = pr.Cn[t] * tp(terms[t].u2);
-    const S dv = -(v * S(terms[t].u2) / S(2)) * invT;
-    const std::size_t g = groups.group_of[t];
-    at.A[g] += v;
-    at.dAdT[g] += dv;
-    if (t < n_b_terms) {
-      at.S1 += v;
-      at.dS1dT += dv;
-    }
+    S1 += v;
+    if (want_T) dS1 -= v * S(terms[t].u2);
   }
-  // Z = 1 + B rho + C rho^2 + ...: only terms with b_n = 2 contribute to the
-  // rho^2 coefficient (every term with b_n = 1 has k_n >= 2), each with b_n C*_n.
+  at.B = B;
+  at.dBdT = dB * half_invT;
+  at.S1 = S1;
+  at.dS1dT = dS1 * half_invT;
   S c2(0);
-  for (std::size_t g = 0; g < groups.count; ++g)
-    if (groups.b[g] == 2) c2 += S(2) * at.A[g];
+  for (std::size_t g = 0; g < groups.count; ++g) {
+    S a(0), da(0);
+    for (std::size_t m = group_order.start[g]; m < group_order.start[g + 1]; ++m) {
+      const std::size_t t = group_order.order[m];
+      const S v = pr.Cn[t] * tp(terms[t].u2);
+      a += v;
+      if (want_T) da -= v * S(terms[t].u2);
+    }
+    at.A[g] = a;
+    at.dAdT[g] = da * half_invT;
+    // Z = 1 + B rho + C rho^2 + ...: only terms with b_n = 2 contribute to the
+    // rho^2 coefficient (every term with b_n = 1 has k_n >= 2), each with b_n C*_n.
+    if (groups.b[g] == 2) c2 += S(2) * a;
+  }
   at.C = c2 * pr.K3 * pr.K3;
 }
 
@@ -562,7 +583,10 @@ template <class S>
 // bracket [lo, hi] with p(lo) < p; a point where dp/drho <= 0 (beyond the
 // first maximum of the gas branch) or p >= target shrinks hi, and a step that
 // leaves the bracket is replaced by bisection. Converged when a Newton step
-// is below rel_tol relative; a bracket collapsed without convergence means
+// is below rel_tol relative, or when the error it leaves, estimated from the
+// quadratic convergence of two successive Newton steps, is (then the Newton
+// update is taken and, without derivatives, Z = p / (rho R T) needs no further
+// evaluation). A bracket collapsed without convergence means
 // there is no gas root (no_gas_root); max_iter reached gives no_convergence
 // (flag iteration_cap) with the last iterate.
 template <class S>
@@ -598,7 +622,7 @@ template <class S>
   r.M_g_per_mol = pr.M_g_per_mol;
 
   AtTemperature<S> at;
-  at_temperature(pr, T_K, at);
+  at_temperature(pr, T_K, at, derivatives);
   r.B_cm3_per_mol = at.B * S(1000);
   r.C_cm6_per_mol2 = at.C * S(1.0e6);
 
@@ -617,6 +641,8 @@ template <class S>
     const S rho_cap = S(6) / pr.K3;
     S lo(0), hi = rho_cap;
     bool converged = false;
+    bool newton_before = false;  // the current iterate came from a Newton step
+    S prev_step(1);
     if (!(rho > lo && rho < hi)) rho = S(0.5) * (lo + hi);
     const int max_iter = opt.max_iter > 0 ? opt.max_iter : 1;
     const S tol(opt.rel_tol);
@@ -627,6 +653,7 @@ template <class S>
       if (!num::isfinite_(pc) || !num::isfinite_(dpdrho) || !(dpdrho > S(0))) {
         hi = rho;  // beyond the first maximum of p(rho), or unusable: the gas root is below
         rho = S(0.5) * (lo + hi);
+        newton_before = false;
         if (!(hi - lo > tol * hi)) break;
         continue;
       }
@@ -636,16 +663,27 @@ template <class S>
         lo = rho;
       }
       const S next = rho - (pc - p) / dpdrho;
-      if (num::abs_(S(next - rho)) <= tol * rho) {  // Newton step below tolerance: converged
+      const S step = num::abs_(S(next - rho)) / rho;  // relative Newton step
+      // Converged when the step is below tolerance, or when the error left
+      // after it, estimated from quadratic convergence as step^3 / prev_step^2
+      // (prev_step from the previous Newton step), is.
+      const bool quad = newton_before && S(step * step * step) <= tol * prev_step * prev_step;
+      if (step <= tol || quad) {
         if (next >= lo && next <= hi) rho = next;
         converged = true;
         break;
       }
-      rho = (next > lo && next < hi) ? next : S(S(0.5) * (lo + hi));
+      newton_before = next > lo && next < hi;
+      prev_step = step;
+      rho = newton_before ? next : S(S(0.5) * (lo + hi));
       if (!(hi - lo > tol * hi)) break;  // bracket collapsed without a root
     }
     if (it > max_iter) it = max_iter;
-    pt = z_at_density(pr, at, S(pr.K3 * rho), derivatives);
+    if (derivatives || !converged) {
+      pt = z_at_density(pr, at, S(pr.K3 * rho), derivatives);
+    } else {
+      pt.Z = p / (rho * RT);  // the converged density reproduces p; no further evaluation
+    }
     if (!converged) {
       const bool collapsed = !(hi - lo > tol * hi);
       if (collapsed) {
