@@ -573,22 +573,89 @@ template <class S>
   return z_at_density(pr, at, S(pr.K3 * rho_mol_per_L), false).Z;
 }
 
+// Samples of dp/drho below a root when the gas branch has to be confirmed.
+inline constexpr int gas_branch_samples = 24;
+
+template <class S>
+struct DensitySolve {
+  S rho{};
+  int iterations = 0;
+  bool converged = false;
+  bool collapsed = false;  // the bracket shrank to nothing without a root
+  bool clean = true;       // no bisection, and dp/drho > 0 at every iterate
+};
+
+// Safeguarded Newton iteration for p(rho) = p_kPa inside [lo, hi], p(lo) < p.
+// A point where dp/drho <= 0 (beyond the first maximum of the gas branch) or
+// p >= target shrinks hi; a step that leaves the bracket is replaced by
+// bisection. Converged when a Newton step is below tol relative, or when the
+// error it leaves, estimated from the quadratic convergence of two successive
+// Newton steps (step^3 / previous step^2), is. At most max_iter evaluations.
+template <class S>
+[[nodiscard]] DensitySolve<S> solve_density(const Prepared<S>& pr, const AtTemperature<S>& at, const S& p, S lo, S hi,
+                                            S rho, int max_iter, const S& tol) noexcept {
+  DensitySolve<S> r;
+  bool newton_before = false;  // the current iterate came from a Newton step
+  bool hi_beyond_max = false;  // hi was set by a point with dp/drho <= 0
+  S prev_step(1);
+  // The bracket has collapsed without a root: to the tolerance, or, when hi
+  // lies beyond the first maximum of p(rho), to 1e-9 relative: the pressure is
+  // then above what the gas branch reaches, save within 1e-9 of its stability
+  // limit, so there is no gas root (this keeps such states from running into
+  // the iteration cap).
+  auto collapsed = [&]() { return !(hi - lo > tol * hi) || (hi_beyond_max && !(hi - lo > S(1.0e-9) * hi)); };
+  if (!(rho > lo && rho < hi)) rho = S(0.5) * (lo + hi);
+  for (r.iterations = 1; r.iterations <= max_iter; ++r.iterations) {
+    const auto pt = z_at_density(pr, at, S(pr.K3 * rho), false);
+    const S pc = pt.Z * rho * at.RT;
+    const S dpdrho = at.RT * (pt.Z + rho * pr.K3 * pt.dZdD);
+    if (!num::isfinite_(pc) || !num::isfinite_(dpdrho) || !(dpdrho > S(0))) {
+      hi = rho;  // beyond the first maximum of p(rho), or unusable: the gas root is below
+      hi_beyond_max = true;
+      rho = S(0.5) * (lo + hi);
+      newton_before = false;
+      r.clean = false;
+      if (collapsed()) break;
+      continue;
+    }
+    if (pc >= p) {
+      hi = rho;
+      hi_beyond_max = false;
+    } else {
+      lo = rho;
+    }
+    const S next = rho - (pc - p) / dpdrho;
+    const S step = num::abs_(S(next - rho)) / rho;  // relative Newton step
+    const bool quad = newton_before && S(step * step * step) <= tol * prev_step * prev_step;
+    if (step <= tol || quad) {
+      if (next >= lo && next <= hi) rho = next;
+      r.rho = rho;
+      r.converged = true;
+      return r;
+    }
+    newton_before = next > lo && next < hi;
+    if (!newton_before) r.clean = false;
+    prev_step = step;
+    rho = newton_before ? next : S(S(0.5) * (lo + hi));
+    if (collapsed()) break;
+  }
+  if (r.iterations > max_iter) r.iterations = max_iter;
+  r.rho = rho;
+  r.collapsed = collapsed();
+  return r;
+}
+
 // Solves p = Z rho R T for the gas-phase molar density and reports Z, the
 // densities, B, C and (when derivatives) dZ/dp and dZ/dT. Refuses a state
 // outside the expanded range (T, p or composition) with out_of_range unless
 // opt.allow_outside_range, then flags it extrapolated. Status.range is the
 // worse of the state's and the composition's class.
 //
-// Density solve: Newton on p(rho) from the virial estimate, kept inside a
-// bracket [lo, hi] with p(lo) < p; a point where dp/drho <= 0 (beyond the
-// first maximum of the gas branch) or p >= target shrinks hi, and a step that
-// leaves the bracket is replaced by bisection. Converged when a Newton step
-// is below rel_tol relative, or when the error it leaves, estimated from the
-// quadratic convergence of two successive Newton steps, is (then the Newton
-// update is taken and, without derivatives, Z = p / (rho R T) needs no further
-// evaluation). A bracket collapsed without convergence means
-// there is no gas root (no_gas_root); max_iter reached gives no_convergence
-// (flag iteration_cap) with the last iterate.
+// Density solve: solve_density() from the virial estimate, bracket [0, reduced
+// density 6]; a root is accepted only on the gas branch (see below). A
+// bracket collapsed without convergence means there is no gas root
+// (no_gas_root); max_iter reached gives no_convergence (flag iteration_cap)
+// with the last iterate.
 template <class S>
 [[nodiscard]] StateResult<S> evaluate(const Prepared<S>& pr, const S& T_K, const S& p_Pa, const SolveOptions& opt = {},
                                       bool derivatives = true) noexcept {
@@ -627,66 +694,45 @@ template <class S>
   r.C_cm6_per_mol2 = at.C * S(1.0e6);
 
   const S p = p_Pa / S(1000);  // kPa
-  const S RT = at.RT;
   S rho(0);
   DensityPoint<S> pt;
   int it = 0;
   if (p > S(0)) {
     // Start: 1 + B rho = p / (rho R T) solved for rho (ideal gas if B makes it complex).
-    const S rid = p / RT;
+    const S rid = p / at.RT;
     const S disc = S(1) + S(4) * at.B * rid;
-    rho = disc > S(0) ? S(S(2) * rid / (S(1) + num::sqrt_(disc))) : rid;
+    const S start = disc > S(0) ? S(S(2) * rid / (S(1) + num::sqrt_(disc))) : rid;
     // Hard upper bound: reduced density 6 lies far beyond any liquid density of
     // the method's components.
-    const S rho_cap = S(6) / pr.K3;
-    S lo(0), hi = rho_cap;
-    bool converged = false;
-    bool newton_before = false;  // the current iterate came from a Newton step
-    S prev_step(1);
-    if (!(rho > lo && rho < hi)) rho = S(0.5) * (lo + hi);
     const int max_iter = opt.max_iter > 0 ? opt.max_iter : 1;
-    const S tol(opt.rel_tol);
-    for (it = 1; it <= max_iter; ++it) {
-      pt = z_at_density(pr, at, S(pr.K3 * rho), false);
-      const S pc = pt.Z * rho * RT;
-      const S dpdrho = RT * (pt.Z + rho * pr.K3 * pt.dZdD);
-      if (!num::isfinite_(pc) || !num::isfinite_(dpdrho) || !(dpdrho > S(0))) {
-        hi = rho;  // beyond the first maximum of p(rho), or unusable: the gas root is below
-        rho = S(0.5) * (lo + hi);
-        newton_before = false;
-        if (!(hi - lo > tol * hi)) break;
-        continue;
+    auto sol = solve_density(pr, at, p, S(0), S(S(6) / pr.K3), start, max_iter, S(opt.rel_tol));
+    it = sol.iterations;
+    // Gas branch only: p(rho) must rise monotonically from 0 to the root. In
+    // the normal range, a solve that never met dp/drho <= 0 and never needed
+    // bisection is taken as it is; otherwise dp/drho is sampled below the
+    // root, and if it fails somewhere the root lies beyond the first maximum
+    // of p(rho) (a liquid-like root): the solve is repeated below that point,
+    // where a gas root exists only if the maximum reaches the pressure.
+    if (sol.converged && !(sol.clean && st.range == RangeClass::normal)) {
+      for (int k = 1; k < gas_branch_samples; ++k) {
+        const S rk = sol.rho * S(k) / S(gas_branch_samples);
+        const auto q = z_at_density(pr, at, S(pr.K3 * rk), false);
+        if (!(at.RT * (q.Z + rk * pr.K3 * q.dZdD) > S(0))) {
+          const int left = max_iter - it > 0 ? max_iter - it : 1;
+          sol = solve_density(pr, at, p, S(0), rk, S(rk / S(2)), left, S(opt.rel_tol));
+          it += sol.iterations;
+          break;
+        }
       }
-      if (pc >= p) {
-        hi = rho;
-      } else {
-        lo = rho;
-      }
-      const S next = rho - (pc - p) / dpdrho;
-      const S step = num::abs_(S(next - rho)) / rho;  // relative Newton step
-      // Converged when the step is below tolerance, or when the error left
-      // after it, estimated from quadratic convergence as step^3 / prev_step^2
-      // (prev_step from the previous Newton step), is.
-      const bool quad = newton_before && S(step * step * step) <= tol * prev_step * prev_step;
-      if (step <= tol || quad) {
-        if (next >= lo && next <= hi) rho = next;
-        converged = true;
-        break;
-      }
-      newton_before = next > lo && next < hi;
-      prev_step = step;
-      rho = newton_before ? next : S(S(0.5) * (lo + hi));
-      if (!(hi - lo > tol * hi)) break;  // bracket collapsed without a root
     }
-    if (it > max_iter) it = max_iter;
-    if (derivatives || !converged) {
+    rho = sol.rho;
+    if (derivatives || !sol.converged) {
       pt = z_at_density(pr, at, S(pr.K3 * rho), derivatives);
     } else {
-      pt.Z = p / (rho * RT);  // the converged density reproduces p; no further evaluation
+      pt.Z = p / (rho * at.RT);  // the converged density reproduces p; no further evaluation
     }
-    if (!converged) {
-      const bool collapsed = !(hi - lo > tol * hi);
-      if (collapsed) {
+    if (!sol.converged) {
+      if (sol.collapsed) {
         st.code = Code::no_gas_root;
       } else {
         st.code = Code::no_convergence;
@@ -703,7 +749,7 @@ template <class S>
   r.Z_virial2 = S(1) + at.B * rho + at.C * rho * rho;
   if (derivatives) {
     const S dZdrho = pt.dZdD * pr.K3;                       // (dZ/drho)_T
-    const S dpdrho = RT * (pt.Z + rho * dZdrho);            // kPa dm^3/mol
+    const S dpdrho = at.RT * (pt.Z + rho * dZdrho);         // kPa dm^3/mol
     const S dpdT = rho * gas_constant<S>() * (pt.Z + T_K * pt.dZdT);  // (dp/dT)_rho, kPa/K
     r.dZdp_per_kPa = dZdrho / dpdrho;
     r.dZdT_per_K = pt.dZdT - dZdrho * dpdT / dpdrho;
