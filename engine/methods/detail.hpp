@@ -62,6 +62,34 @@ inline constexpr std::size_t n_terms = 58;
 inline constexpr std::size_t n_b_terms = 18;      // terms 1..18 make up B
 inline constexpr std::size_t first_c_term = 12;   // index of term 13: terms 13..58 make up the density series
 
+// What the code below assumes about the tables, checked when it compiles.
+[[nodiscard]] constexpr bool tables_have_expected_shape() noexcept {
+  for (std::size_t n = 0; n < n_terms; ++n) {
+    const auto& t = detail_data::terms[n];
+    for (int f : {t.c, t.g, t.q, t.f, t.s, t.w})
+      if (f != 0 && f != 1) return false;                    // every flag is 0 or 1
+    if (t.b < 1 || t.b > 9 || t.k < 0 || t.k > 4) return false;  // power tables of D
+    if ((t.c == 0) != (t.k == 0)) return false;              // c_n = 0 exactly when k_n = 0
+    if (n >= first_c_term && (t.s != 0 || t.w != 0)) return false;  // S, W act in B only
+    // The third virial coefficient takes only b_n = 2 terms: every b_n = 1 term
+    // of the density series has c_n = 1 and k_n >= 2, and they are terms 13..18.
+    if (n >= first_c_term && t.b == 1 && (n >= n_b_terms || t.k < 2)) return false;
+  }
+  // Each unordered pair at most once, never a component with itself.
+  for (std::size_t m = 0; m < detail_data::binaries.size(); ++m) {
+    const auto& a = detail_data::binaries[m];
+    if (a.i == a.j) return false;
+    for (std::size_t n = m + 1; n < detail_data::binaries.size(); ++n) {
+      const auto& b = detail_data::binaries[n];
+      if ((a.i == b.i && a.j == b.j) || (a.i == b.j && a.j == b.i)) return false;
+    }
+  }
+  for (std::size_t i = 0; i < max_components; ++i)
+    if (detail_data::components[i].number < 1 || detail_data::components[i].number > 21) return false;
+  return true;
+}
+static_assert(tables_have_expected_shape(), "detail_data.hpp does not have the shape detail.hpp relies on");
+
 // Row of the binary-parameter table for a pair, or -1 when all four are 1.
 struct BinaryIndex {
   std::array<std::array<std::int8_t, max_components>, max_components> row{};
@@ -115,14 +143,13 @@ struct GroupOrder {
   std::size_t k = 0;
   for (std::size_t g = 0; g < groups.count; ++g) {
     o.start[g] = static_cast<std::uint8_t>(k);
-    for (std::size_t n = 12; n < n_terms; ++n)
+    for (std::size_t n = first_c_term; n < n_terms; ++n)
       if (groups.group_of[n] == g) o.order[k++] = static_cast<std::uint8_t>(n);
   }
   o.start[groups.count] = static_cast<std::uint8_t>(k);
   return o;
 }
 inline constexpr GroupOrder group_order = make_group_order();
-inline constexpr std::size_t max_groups = n_terms - first_c_term;
 
 // Largest |2 u_n| over the terms [first, last) with u_n < 0, and largest 2 u_n
 // with u_n > 0: the sizes of the power tables.

@@ -31,3 +31,10 @@ zcorr_cli_test(NAME detail_bad_header ARGS z --method detail --input ${CLI_DATA}
                MATCH "T_K and P_kPa")
 zcorr_cli_test(NAME detail_unknown_component ARGS z --method detail --T 300K --p "5 MPa" --gas "methane=0.98,unobtainium=0.02"
                EXPECT_EXIT 2)
+# engine/data/detail_data.hpp is exactly what scripts/gen_detail_data.py makes of
+# engine/data/detail_source/*.csv (skipped where no python3 is installed).
+find_program(ZCORR_PYTHON3 python3)
+if(ZCORR_PYTHON3)
+  add_test(NAME detail_data_header_is_generated
+           COMMAND ${ZCORR_PYTHON3} ${PROJECT_SOURCE_DIR}/scripts/gen_detail_data.py --check)
+endif()
