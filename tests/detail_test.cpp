@@ -245,6 +245,21 @@ TEST(DetailSolve, DensityReproducesPressure) {
     }
 }
 
+// The fast path (z_factor: Z = p / (rho R T) at the converged density, no
+// further evaluation) agrees with the equation at that density.
+TEST(DetailSolve, FastPathAgreesWithTheEquation) {
+  for (const auto& [name, gas] : iso_gases()) {
+    const auto p = prepared(gas);
+    for (double T : {263.0, 290.0, 338.0})
+      for (double P : {101325.0, 3e6, 8e6, 12e6}) {
+        const auto z = ad::z_factor(p, T, P);
+        ASSERT_TRUE(z.status.ok()) << name;
+        EXPECT_NEAR(z.Z, ad::z_from_density(p, T, z.rho_mol_per_L), 1e-13) << name << " " << T << " " << P;
+        EXPECT_NEAR(z.Z, ad::evaluate(p, T, P).Z, 1e-13) << name;
+      }
+  }
+}
+
 // dZ/dp at constant T and dZ/dT at constant p against central differences.
 TEST(DetailSolve, DerivativesMatchFiniteDifferences) {
   for (const auto& [name, gas] : iso_gases()) {
