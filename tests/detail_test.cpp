@@ -326,12 +326,12 @@ TEST(DetailSolve, TruncatedVirialZIsCloseAtLowDensity) {
 // ---------------------------------------------------------------------------
 // Agreement with GERG-2008.
 // Source: GERG-2008 reference states, teqp strict model, shared data set
-// gerg2008-reference (tests/data/gerg2008-reference/states.csv). Window:
+// gerg2008-reference (tests/data/gerg2008/states.csv). Window:
 // pipeline-quality states, x_H2 <= 0.10, 265 K <= T <= 335 K, p <= 12 MPa.
 // Limits: median |dZ/Z| <= 0.02 %, max <= 0.4 % (the two equations part most
 // near the hydrocarbon dew point at low T and high p).
 TEST(DetailVsGerg2008, PipelineQualityStates) {
-  const auto path = std::filesystem::path(ZCORR_SOURCE_DIR) / "tests/data/gerg2008-reference/states.csv";
+  const auto path = std::filesystem::path(ZCORR_SOURCE_DIR) / "tests/data/gerg2008/states.csv";
   std::ifstream in(path);
   ASSERT_TRUE(in) << path;
   io::CsvReader reader(in);
