@@ -38,3 +38,8 @@ if(ZCORR_PYTHON3)
   add_test(NAME detail_data_header_is_generated
            COMMAND ${ZCORR_PYTHON3} ${PROJECT_SOURCE_DIR}/scripts/gen_detail_data.py --check)
 endif()
+# zcorr convert uses the detail method for Z_f and Z_b (ISO 12213-2 Annex C gas 1 at 6 MPa, 270 K: Z = 0.84053, from memory).
+zcorr_cli_test(NAME detail_convert
+               ARGS convert --method detail --V "1000 m3" --T 270K --p "6 MPa"
+                    --gas "methane=0.965,nitrogen=0.003,CO2=0.006,ethane=0.018,propane=0.0045,iC4=0.001,nC4=0.001,iC5=0.0005,nC5=0.0003,nC6=0.0007"
+               MATCH "Z_f +0\\.84052[5-9][0-9]* +\\(detail\\).*Z_b +0\\.99[0-9]+ +\\(detail\\).*status +ok")
