@@ -15,6 +15,7 @@
 #include "methods/iso6976.hpp"
 #include "methods/gerg2008.hpp"
 #include "methods/sgerg88.hpp"
+#include "methods/detail.hpp"
 
 namespace zcorr {
 
@@ -51,5 +52,7 @@ template Properties<double> properties<double>(const Fractions<double>&, Combust
 template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
 template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef, MeteringRef) noexcept;
 }  // namespace iso6976
+template Status aga8_detail::prepare<double>(const Fractions<double>&, aga8_detail::Prepared<double>&) noexcept;
+template aga8_detail::StateResult<double> aga8_detail::evaluate<double>(const aga8_detail::Prepared<double>&, const double&, const double&, const SolveOptions&, bool) noexcept;
 
 }  // namespace zcorr

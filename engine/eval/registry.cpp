@@ -10,6 +10,7 @@ std::unique_ptr<LineMethod> make_gerg2008_method();
 std::unique_ptr<LineMethod> make_sgerg88_line_method();  // sgerg88_adapter.cpp
 std::unique_ptr<LineMethod> make_gross1_line_method();   // sgerg88_adapter.cpp
 std::unique_ptr<LineMethod> make_gross2_line_method();   // sgerg88_adapter.cpp
+std::unique_ptr<LineMethod> make_detail_method();
 
 std::unique_ptr<LineMethod> make_line_method(MethodId m) {
   switch (m) {
@@ -18,6 +19,7 @@ std::unique_ptr<LineMethod> make_line_method(MethodId m) {
     case MethodId::sgerg88: return make_sgerg88_line_method();
     case MethodId::gross1: return make_gross1_line_method();
     case MethodId::gross2: return make_gross2_line_method();
+    case MethodId::detail: return make_detail_method();
     default: break;
   }
   return nullptr;
