@@ -14,6 +14,9 @@ int main(int argc, char** argv) {
   int exit_code = 0;
   zcorr::cli::setup_z(app, exit_code);
   zcorr::cli::setup_cases(app, exit_code);
+  zcorr::cli::setup_record(app, exit_code);
+  zcorr::cli::setup_verify(app, exit_code);
+  zcorr::cli::setup_quantities(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {
