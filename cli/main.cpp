@@ -8,12 +8,16 @@ int main(int argc, char** argv) {
   CLI::App app{"zcorr: compressibility factors and base-volume corrections for natural-gas measurement"};
   app.footer(std::string("\nExamples:\n"
                          "  zcorr z --method gerg2008 --T \"15 degC\" --p \"5 MPa\" --gas \"methane=0.95,ethane=0.03,nitrogen=0.02\"\n"
+                         "  zcorr props --gas \"methane=0.95,ethane=0.03,nitrogen=0.02\" --combustion-ref 25 --metering-ref 0\n"
                          "  zcorr cases\n\n") +
              zcorr::cli::caution_text);
   app.require_subcommand(1);
   int exit_code = 0;
   zcorr::cli::setup_z(app, exit_code);
+  zcorr::cli::setup_convert(app, exit_code);
   zcorr::cli::setup_cases(app, exit_code);
+  zcorr::cli::setup_demo(app, exit_code);
+  zcorr::cli::setup_props(app, exit_code);
   zcorr::cli::setup_record(app, exit_code);
   zcorr::cli::setup_verify(app, exit_code);
   zcorr::cli::setup_quantities(app, exit_code);
