@@ -28,7 +28,9 @@
 //   from it by the covariance of the samples, a second-order effect).
 // The integral value I does not depend on the base conditions, so a replay
 // with other base conditions rescales it exactly.
-// Energy E = V_b * Hs (Hs of the analysis in force, MJ/m3 at base conditions);
+// Energy E = V_b * Hs (Hs of the analysis in force, MJ/m3 at base conditions;
+// when the analysis gives none, ISO 6976 computes it from the composition
+// at the base conditions, and the interval records the value used);
 // mass = sum rho_f,i V_f,i (per_sample) or rho_f(avg) V_conv.
 // Registers: round(quantity / quantum), half away from zero, once per interval.
 #pragma once

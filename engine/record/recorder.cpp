@@ -3,7 +3,9 @@
 #include <algorithm>
 #include <cmath>
 
+#include "eval/conversion.hpp"
 #include "io/text.hpp"
+#include "methods/iso6976.hpp"
 #include "record/timeutil.hpp"
 
 namespace zcorr::record {
@@ -138,6 +140,15 @@ void Recorder::set_gas(const Fractions<double>& x, double Hs, std::int64_t seq) 
   gas_.Z_b = b[Quantity::Z];
   gas_.usable = true;
   gas_.status = "ok";
+  if (std::isnan(Hs)) {
+    // No Hs in the analysis: ISO 6976 at the base conditions (metering
+    // reference = base temperature and pressure), with the combustion
+    // reference usually paired with it (eval/conversion.hpp).
+    if (const auto mref = metering_ref_for(cfg_.base_T_K)) {
+      const auto props = iso6976::properties(x, default_combustion_for(cfg_.base_T_K), *mref, cfg_.base_p_Pa);
+      if (props.status.ok()) gas_.Hs_MJ_per_m3 = props.Hs_MJ_per_m3;
+    }
+  }
 }
 
 void Recorder::add_analyses(const std::vector<AnalysisInput>& list) {
