@@ -20,6 +20,13 @@ std::string join_row(const std::vector<std::string>& r) {
   return s;
 }
 
+// Reads the header, skipping '#' comment lines before it.
+bool read_header(io::CsvReader& csv, std::vector<std::string>& header) {
+  while (csv.next(header))
+    if (header.empty() || io::trim(header[0]).substr(0, 1) != "#") return true;
+  return false;
+}
+
 bool read_number(const std::string& text, double& v) {
   try {
     v = io::parse_number(text, "value");
@@ -33,7 +40,7 @@ bool read_number(const std::string& text, double& v) {
 
 SampleReader::SampleReader(std::istream& in, std::string name, const PointConfig& cfg) : csv_(in), name_(std::move(name)), cfg_(cfg) {
   std::vector<std::string> header;
-  if (!csv_.next(header)) throw io::InputError(name_, "", "the sample file is empty (a header line is required)");
+  if (!read_header(csv_, header)) throw io::InputError(name_, "", "the sample file is empty (a header line is required)");
   ncols_ = header.size();
   for (std::size_t i = 0; i < header.size(); ++i) {
     const std::string h(io::trim(header[i]));
@@ -106,7 +113,7 @@ SampleReader::Next SampleReader::next(RawSample& s, BadRow& bad) {
 AnalysisFile read_analyses(std::istream& in, const std::string& name, const io::CompositionOptions& opt) {
   io::CsvReader csv(in);
   std::vector<std::string> header, row;
-  if (!csv.next(header)) throw io::InputError(name, "", "the analysis file is empty (a header line is required)");
+  if (!read_header(csv, header)) throw io::InputError(name, "", "the analysis file is empty (a header line is required)");
   int c_from = -1, c_sampled = -1, c_source = -1, c_hs = -1, c_ref = -1;
   std::array<int, max_components> c_x;
   c_x.fill(-1);

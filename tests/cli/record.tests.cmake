@@ -35,3 +35,10 @@ else()
   zcorr_cli_test(NAME record_method_missing ARGS record --db ${LOG_DIR}/x.db --config ${CLI_DATA}/point.conf --samples
                  ${CLI_DATA}/samples.csv EXPECT_EXIT 2 MATCH "not available in this build")
 endif()
+
+# The demo: a week of 1-minute data recorded to a log that verifies clean.
+if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
+  zcorr_cli_test(NAME demo_week ARGS demo --dir ${LOG_DIR}/demo MATCH "2026-03-08 .*verify: clean")
+  zcorr_cli_test(NAME demo_week_log_verifies ARGS verify --db ${LOG_DIR}/demo/hollin-ford.db MATCH "10080 intervals.*result    clean")
+  set_tests_properties(cli.demo_week_log_verifies PROPERTIES DEPENDS cli.demo_week)
+endif()
