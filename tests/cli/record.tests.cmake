@@ -42,3 +42,11 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   zcorr_cli_test(NAME demo_week_log_verifies ARGS verify --db ${LOG_DIR}/demo/hollin-ford.db MATCH "10080 intervals.*result    clean")
   set_tests_properties(cli.demo_week_log_verifies PROPERTIES DEPENDS cli.demo_week)
 endif()
+
+# SIGKILL during `zcorr record`, verify, resume; the result equals an uninterrupted recording.
+if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
+  add_test(NAME cli.record_killed_and_resumed
+           COMMAND bash ${CMAKE_CURRENT_SOURCE_DIR}/cli/kill_record.sh $<TARGET_FILE:zcorr> ${LOG_DIR}/kill ${CLI_DATA}/point.conf
+                   ${CLI_DATA}/analyses.csv)
+  set_tests_properties(cli.record_killed_and_resumed PROPERTIES PASS_REGULAR_EXPRESSION "final log equals the uninterrupted one")
+endif()
