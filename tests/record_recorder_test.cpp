@@ -12,6 +12,7 @@
 #include <random>
 #include <thread>
 
+#include "methods/iso6976.hpp"
 #include "record/verify.hpp"
 #include "support/record_fixture.hpp"
 
@@ -235,4 +236,52 @@ TEST(Recorder, KilledMidRecordingLosesNothingCommittedAndResumes) {
   std::cout << "kill test: " << kills << " kills (uninterrupted run " << run_ms << " ms), " << committed
             << " of 8640 intervals committed before the final run\n";
   EXPECT_GE(kills, 2) << "the recording finished before it could be killed; make it longer";
+}
+
+TEST(Recorder, AnalysesApplyAtIntervalBoundariesAndHsComesFromIso6976WhenMissing) {
+  auto p = zcorr::testing::temp_log("analyses");
+  const std::string analyses =
+      "valid_from,source,methane,ethane,nitrogen,carbon_dioxide\n" + std::to_string(t0) + ",GC a,0.93,0.04,0.02,0.01\n" +
+      std::to_string(t0 + 125) + ",GC b,0.92,0.05,0.02,0.01\n";  // not on a boundary: in force from t0 + 180
+  {
+    Log log(p, {OpenMode::writer});
+    zcorr::testing::VirialTestGas gas;
+    zcorr::testing::record_text(log, zcorr::testing::test_config(), gas, zcorr::testing::sample_csv(t0, 60), analyses);
+  }
+  expect_clean(p);
+  Log log(p, {OpenMode::read_only});
+  const auto a2 = scalar(log.db(), "SELECT seq FROM gas_analysis WHERE source='GC b'");
+  EXPECT_EQ(scalar(log.db(), "SELECT min(start_utc_s) FROM interval WHERE analysis_seq=" + std::to_string(a2)), t0 + 180);
+  EXPECT_EQ(scalar(log.db(), "SELECT count(*) FROM event WHERE kind='analysis_change'"), 2);
+  // Hs of the interval: ISO 6976 (this project's implementation) at 15 degC / 15 degC, 101.325 kPa.
+  Fractions<double> x{};
+  x[index(Component::methane)] = 0.93;
+  x[index(Component::ethane)] = 0.04;
+  x[index(Component::nitrogen)] = 0.02;
+  x[index(Component::carbon_dioxide)] = 0.01;
+  const auto props = iso6976::properties(x, iso6976::CombustionRef::t15C, iso6976::MeteringRef::t15C, 101325.0);
+  Stmt s(log.db(), "SELECT Hs_MJ_per_m3, E_MJ, V_b_m3 FROM interval ORDER BY seq LIMIT 1");
+  ASSERT_TRUE(s.step());
+  EXPECT_DOUBLE_EQ(s.f64(0), props.Hs_MJ_per_m3);
+  EXPECT_DOUBLE_EQ(s.f64(1), s.f64(2) * props.Hs_MJ_per_m3);
+}
+
+TEST(Recorder, MissingDataIsAGapEvent) {
+  auto p = zcorr::testing::temp_log("gap");
+  std::string csv = "time,p_kPa,T_degC,V_m3\n";
+  for (int i = 1; i <= 30; ++i)
+    if (i <= 12 || i > 20) csv += std::to_string(t0 + i * 10) + ",5000,12,1.0\n";  // rows 13..20 missing
+  {
+    Log log(p, {OpenMode::writer});
+    zcorr::testing::VirialTestGas gas;
+    zcorr::testing::record_text(log, zcorr::testing::test_config(), gas, csv, zcorr::testing::analysis_csv(t0));
+  }
+  expect_clean(p);
+  Log log(p, {OpenMode::read_only});
+  EXPECT_EQ(scalar(log.db(), "SELECT count(*) FROM event WHERE kind='gap'"), 1);
+  EXPECT_EQ(scalar(log.db(), "SELECT start_utc_s FROM interval WHERE flags & " + std::to_string(iflag::gap)), t0 + 180);
+  // The interval from t0 + 120 has no row at all and is not written; the one after the gap holds 4 rows.
+  EXPECT_EQ(scalar(log.db(), "SELECT count(*) FROM interval"), 4);
+  EXPECT_EQ(scalar(log.db(), "SELECT count(*) FROM interval WHERE start_utc_s=" + std::to_string(t0 + 120)), 0);
+  EXPECT_EQ(scalar(log.db(), "SELECT samples FROM interval WHERE start_utc_s=" + std::to_string(t0 + 180)), 4);
 }
