@@ -303,3 +303,31 @@ TEST(RecordCanonical, EncodingIsStableAndDocumented) {
   const std::string tail("\0\x0blimit_value\x02\x3f\xf8\0\0\0\0\0\0", 22);
   EXPECT_EQ(std::string(b.end() - 22, b.end()), tail);
 }
+
+TEST(RecordVerify, CorrectionsNameAnEarlierRecordOfTheirTable) {
+  auto p = recorded_log("corrections", 60);
+  std::int64_t original = 0;
+  {
+    Log log(p, {OpenMode::writer});
+    original = scalar(log.db(), "SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 3");
+    std::string sql = "SELECT ";
+    for (std::size_t i = 0; i < std::size(cols::interval); ++i) sql += (i ? ", " : "") + std::string(cols::interval[i]);
+    Stmt s(log.db(), sql + " FROM interval WHERE seq = " + std::to_string(original));
+    ASSERT_TRUE(s.step());
+    std::vector<Value> v;
+    for (std::size_t i = 0; i < std::size(cols::interval); ++i) v.push_back(s.value(static_cast<int>(i)));
+    v[std::size(cols::interval) - 2] = original;                                // corrects_seq
+    v[std::size(cols::interval) - 1] = std::string("meter factor entered late");  // correction_reason
+    log.begin();
+    log.append(Table::interval, v);
+    auto bad = v;
+    bad[std::size(cols::interval) - 2] = std::int64_t{999999};
+    log.append(Table::interval, bad);
+    log.commit();
+  }
+  Log log(p, {OpenMode::read_only});
+  auto r = verify_log(log);
+  ASSERT_EQ(r.findings.size(), 1u);
+  EXPECT_EQ(r.findings[0].kind, "bad_correction");
+  EXPECT_EQ(r.findings[0].seq, r.last_seq);
+}

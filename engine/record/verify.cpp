@@ -1,5 +1,6 @@
 #include "record/verify.hpp"
 
+#include <array>
 #include <cmath>
 #include <cstring>
 #include <optional>
@@ -140,6 +141,26 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
 
   auto where = [](const Row& r) { return std::string(table_info(r.table).name) + " seq " + std::to_string(r.seq); };
 
+  // A correction must name an earlier record of its own table.
+  std::array<Stmt, table_count> exists;
+  for (std::size_t t = 0; t < table_count; ++t)
+    exists[t] = Stmt(db, "SELECT 1 FROM " + std::string(tables[t].name) + " WHERE seq = ?");
+  auto check_correction = [&](const Row& r) {
+    const auto& c = table_info(r.table).columns;
+    const auto i = col_index(c, "corrects_seq");
+    if (i >= c.size() || std::holds_alternative<Null>(r.values[i])) return;
+    const auto target = as_i64(r.values[i]);
+    auto& q = exists[static_cast<std::size_t>(r.table)];
+    q.bind(1, target);
+    const bool found = q.step();
+    q.reset();
+    if (!found || target >= r.seq)
+      report(r, "bad_correction", "corrects_seq " + std::to_string(target) + " is not an earlier " + std::string(table_info(r.table).name) +
+                                      " record");
+    const auto j = col_index(c, "correction_reason");
+    if (j < c.size() && as_text(r.values[j]).empty()) report(r, "bad_correction", "a correction without a correction_reason");
+  };
+
   auto check_totals = [&](const Row& r) {
     if (r.table == Table::interval) {
       if (!std::holds_alternative<Null>(r.values[i_corr])) return;  // corrections are totalled by the audit
@@ -225,6 +246,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       }
     }
     check_totals(r);
+    check_correction(r);
     prev_seq = next;
     prev_hash = r.hash;
     prev_where = where(r);

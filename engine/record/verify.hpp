@@ -10,7 +10,10 @@
 //    record against the intervals before it: period totals equal the sums of
 //    the intervals since the previous record of the same period, register
 //    readings equal the running sums since the point's first interval, and
-//    those intervals lie inside the period.
+//    those intervals lie inside the period;
+//  * checks that a correction (corrects_seq set) names an earlier record of
+//    its own table and says why. Corrected records are left out of the
+//    running totals here; the audit totals original and corrected sets.
 // The first finding names the first bad row (table, seq, time).
 // Streamed: memory does not grow with the log.
 //
