@@ -168,7 +168,7 @@ void Recorder::add_analyses(const std::vector<AnalysisInput>& list) {
 }
 
 void Recorder::add_bad_analysis(const BadRow& b) {
-  event(b.t_utc_s.value_or(last_end_ == INT64_MIN ? 0 : last_end_), "bad_input", "warning",
+  event(b.t_utc_s.value_or(0), "bad_input", "warning",
         "analysis file line " + std::to_string(b.line) + ": " + b.why + "; row: " + b.text, b.line);
 }
 
@@ -181,6 +181,7 @@ void Recorder::event(std::int64_t t, std::string kind, std::string severity, std
 
 void Recorder::flush_pending_events() {
   for (auto& e : pending_events_) {
+    if (std::get<std::int64_t>(e[2]) == 0) e[2] = cur_start_;  // a row with no readable time before any sample
     log_.append(Table::event, e);
     ++stats_.events;
   }
@@ -208,7 +209,7 @@ void Recorder::add_bad_row(const BadRow& b) {
   ++stats_.bad_rows;
   if (in_interval_) ++cur_rows_;
   cur_flags_ |= iflag::bad_input;
-  const std::int64_t t = b.t_utc_s.value_or(prev_t_ == INT64_MIN ? 0 : prev_t_);
+  const std::int64_t t = b.t_utc_s.value_or(prev_t_ == INT64_MIN ? 0 : prev_t_);  // 0: placed at the next interval
   event(t, "bad_input", "warning", "line " + std::to_string(b.line) + ": " + b.why + "; row: " + b.text, b.line);
 }
 
