@@ -31,9 +31,21 @@ for round in 1 2 3 4; do
     committed=$n
   fi
 done
+# A second writer while one is recording is refused (exit 2), not interleaved.
+rm -f second.db*
+"$zcorr" record --db second.db --config "$conf" --samples long.csv --analyses "$analyses" --batch 5 > /dev/null &
+first=$!
+sleep "$(printf '%d.%03d' $(( run_ms / 8000 )) $(( run_ms / 8 % 1000 )))"
+set +e
+"$zcorr" record --db second.db --config "$conf" --samples long.csv --analyses "$analyses" > second.out 2>&1
+rc=$?
+set -e
+wait "$first"
+if [ "$rc" != 2 ] || ! grep -q "another writer" second.out; then echo "second writer not refused (exit $rc):"; cat second.out; exit 1; fi
 "$zcorr" record --db killed.db --config "$conf" --samples long.csv --analyses "$analyses" --batch 5 > /dev/null
 "$zcorr" verify --db killed.db > /dev/null
 if [ "$kills" -lt 2 ]; then echo "only $kills kills landed: the recording is too short for this machine"; exit 1; fi
 a=$(count ref.db) b=$(count killed.db)
 if [ "$a" != "$b" ]; then echo "resumed log differs: '$b' vs uninterrupted '$a'"; exit 1; fi
+echo "second writer refused: $(head -1 second.out)"
 echo "kill test: $kills kills (uninterrupted run ${run_ms} ms), last kill left $committed intervals; final log equals the uninterrupted one ($a)"
