@@ -18,6 +18,9 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_cases(app, exit_code);
   zcorr::cli::setup_demo(app, exit_code);
   zcorr::cli::setup_props(app, exit_code);
+  zcorr::cli::setup_record(app, exit_code);
+  zcorr::cli::setup_verify(app, exit_code);
+  zcorr::cli::setup_quantities(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

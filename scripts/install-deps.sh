@@ -3,6 +3,8 @@
 # Run as root on a Debian 12 machine (the compiler, CMake, GoogleTest and
 # Google Benchmark are assumed present; they are installed too if missing).
 set -euo pipefail
+# libsqlite3-dev / sqlite3: the interval log (the shell is used by the tamper tests).
+# libssl-dev: OpenSSL libcrypto's SHA-256 for the log's hash chain (engine/record).
 pkgs=(g++ cmake make libgtest-dev libbenchmark-dev libboost-dev libcli11-dev nlohmann-json3-dev
       libsqlite3-dev sqlite3 libssl-dev)
 missing=()

@@ -13,4 +13,4 @@ zcorr_cli_test(NAME convert.bad_base ARGS convert --zf 0.9 --zb 0.998 --V "1 m3"
                EXPECT_EXIT 2 MATCH "--base: 'moon'")
 zcorr_cli_test(NAME convert.negative_volume ARGS convert --zf 0.9 --zb 0.998 --V "-1 m3" --T "8 degC" --p "4.2 MPa"
                EXPECT_EXIT 2 MATCH ">= 0")
-zcorr_cli_test(NAME demo ARGS demo MATCH "Hollin Ford.*day total +V_f [0-9.]+ m3 +V_b [0-9.]+ m3.*energy [0-9.]+ GJ.*CAUTION")
+zcorr_cli_test(NAME demo ARGS demo --hourly-day MATCH "Hollin Ford.*day total +V_f [0-9.]+ m3 +V_b [0-9.]+ m3.*energy [0-9.]+ GJ.*CAUTION")

@@ -1,0 +1,224 @@
+#include "record/log.hpp"
+
+#include <fcntl.h>
+#include <sys/file.h>
+#include <unistd.h>
+
+#include <chrono>
+#include <cstring>
+#include <fstream>
+#include <random>
+
+#ifndef ZCORR_ENGINE_VERSION
+#define ZCORR_ENGINE_VERSION "unknown"
+#endif
+
+namespace zcorr::record {
+
+const char* engine_version() noexcept { return "zcorr " ZCORR_ENGINE_VERSION; }
+
+namespace {
+
+std::int64_t now_utc_s() {
+  return std::chrono::duration_cast<std::chrono::seconds>(std::chrono::system_clock::now().time_since_epoch()).count();
+}
+
+bool has_table(sqlite3* db, std::string_view name) {
+  Stmt s(db, "SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = ?");
+  s.bind(1, name);
+  return s.step();
+}
+
+std::string random_id() {
+  std::random_device rd;
+  std::array<std::uint8_t, 16> b{};
+  for (auto& x : b) x = static_cast<std::uint8_t>(rd());
+  return to_hex(b);
+}
+
+}  // namespace
+
+int read_schema_version(sqlite3* db) {
+  if (!has_table(db, "schema_version")) {
+    Stmt any(db, "SELECT count(*) FROM sqlite_schema");
+    any.step();
+    if (any.i64(0) != 0) throw LogError("not a zcorr log (no schema_version table)");
+    return 0;
+  }
+  Stmt s(db, "SELECT coalesce(max(version), 0) FROM schema_version");
+  s.step();
+  return static_cast<int>(s.i64(0));
+}
+
+void apply_migrations(sqlite3* db, int up_to) {
+  const int current = read_schema_version(db);
+  for (const auto& m : migrations) {
+    if (m.version <= current || m.version > up_to) continue;
+    exec(db, "BEGIN IMMEDIATE");
+    try {
+      exec(db, m.sql);
+      Stmt ins(db, "INSERT INTO schema_version (version, name, applied_utc_s, engine_version) VALUES (?, ?, ?, ?)");
+      ins.bind(1, std::int64_t{m.version}).bind(2, std::string_view(m.name)).bind(3, now_utc_s()).bind(4, std::string_view(engine_version()));
+      ins.run();
+      exec(db, "COMMIT");
+    } catch (...) {
+      sqlite3_exec(db, "ROLLBACK", nullptr, nullptr, nullptr);
+      throw;
+    }
+  }
+}
+
+Log::Log(const std::filesystem::path& file, const OpenOptions& opt) : file_(file), opt_(opt) {
+  const bool writer = opt.mode == OpenMode::writer;
+  const bool exists = std::filesystem::exists(file);
+  if (!exists && (!writer || !opt.create)) throw LogError(file.string() + ": no such log file");
+  if (exists && !std::filesystem::is_regular_file(file)) throw LogError(file.string() + ": not a regular file");
+  if (writer) take_writer_lock();
+  const int flags = writer ? (SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE) : SQLITE_OPEN_READONLY;
+  if (sqlite3_open_v2(file.c_str(), &db_, flags | SQLITE_OPEN_NOMUTEX, nullptr) != SQLITE_OK) {
+    std::string msg = db_ ? sqlite3_errmsg(db_) : "out of memory";
+    sqlite3_close(db_);
+    db_ = nullptr;
+    if (lock_fd_ >= 0) ::close(lock_fd_);
+    throw LogError(file.string() + ": cannot open: " + msg);
+  }
+  try {
+    sqlite3_busy_timeout(db_, 5000);
+    sqlite3_extended_result_codes(db_, 1);
+    try {
+      version_ = read_schema_version(db_);
+    } catch (const LogError& e) {
+      throw LogError(file.string() + ": " + e.what());
+    }
+    if (version_ > latest_schema_version)
+      throw LogError(file.string() + ": the log has schema version " + std::to_string(version_) +
+                     ", newer than this zcorr understands (" + std::to_string(latest_schema_version) +
+                     "); use a newer zcorr to read or write it");
+    if (!writer && version_ == 0) throw LogError(file.string() + ": not a zcorr log (empty database)");
+    if (writer) {
+      exec(db_, "PRAGMA journal_mode = WAL");
+      exec(db_, opt.durability == Durability::full ? "PRAGMA synchronous = FULL" : "PRAGMA synchronous = NORMAL");
+      if (version_ < latest_schema_version) {
+        apply_migrations(db_);
+        version_ = read_schema_version(db_);
+      }
+      for (std::size_t t = 0; t < table_count; ++t) {
+        const auto& info = tables[t];
+        std::string sql = "INSERT INTO " + std::string(info.name) + " (";
+        std::string qs;
+        for (auto c : info.columns) {
+          sql += std::string(c) + ", ";
+          qs += "?, ";
+        }
+        sql += "prev_hash, hash) VALUES (" + qs + "?, ?)";
+        insert_[t] = Stmt(db_, sql);
+      }
+    }
+    read_head();
+    if (writer && head_seq_ == 0) {
+      begin();
+      std::vector<Value> v{Null{}, random_id(), now_utc_s(), std::string(engine_version()),
+                           std::string("zcorr.record.v1/sha256"), volume_quantum_m3, energy_quantum_J, mass_quantum_kg};
+      append(Table::log_header, v);
+      commit();
+    }
+  } catch (...) {
+    sqlite3_close_v2(db_);
+    db_ = nullptr;
+    if (lock_fd_ >= 0) ::close(lock_fd_);
+    throw;
+  }
+}
+
+Log::~Log() {
+  if (in_tx_) rollback();
+  for (auto& s : insert_) s = Stmt();
+  if (db_) sqlite3_close_v2(db_);
+  if (lock_fd_ >= 0) ::close(lock_fd_);
+}
+
+void Log::take_writer_lock() {
+  const std::string lock_path = file_.string() + "-writer.lock";
+  lock_fd_ = ::open(lock_path.c_str(), O_RDWR | O_CREAT | O_CLOEXEC, 0644);
+  if (lock_fd_ < 0) throw LogError(lock_path + ": cannot open the writer lock: " + std::strerror(errno));
+  if (::flock(lock_fd_, LOCK_EX | LOCK_NB) != 0) {
+    char buf[32] = {};
+    const auto n = ::pread(lock_fd_, buf, sizeof buf - 1, 0);
+    std::string holder = n > 0 ? std::string(buf, static_cast<std::size_t>(n)) : std::string("unknown");
+    while (!holder.empty() && (holder.back() == '\n' || holder.back() == ' ')) holder.pop_back();
+    ::close(lock_fd_);
+    lock_fd_ = -1;
+    throw LogError(file_.string() + ": another writer (pid " + holder +
+                   ") is recording to this log; a log has one writer at a time");
+  }
+  const std::string pid = std::to_string(::getpid()) + "\n";
+  if (::ftruncate(lock_fd_, 0) != 0 || ::pwrite(lock_fd_, pid.data(), pid.size(), 0) < 0) {
+    // The pid is only for the message; the lock itself is held.
+  }
+}
+
+void Log::read_head() {
+  head_seq_ = 0;
+  head_hash_ = zero_digest;
+  for (const auto& info : tables) {
+    Stmt s(db_, "SELECT seq, hash FROM " + std::string(info.name) + " ORDER BY seq DESC LIMIT 1");
+    if (s.step() && s.i64(0) > head_seq_) {
+      head_seq_ = s.i64(0);
+      const auto* p = static_cast<const std::uint8_t*>(sqlite3_column_blob(s.raw(), 1));
+      if (p && sqlite3_column_bytes(s.raw(), 1) == 32) std::memcpy(head_hash_.data(), p, 32);
+      else head_hash_ = zero_digest;
+    }
+  }
+}
+
+void Log::begin() {
+  if (opt_.mode != OpenMode::writer) throw LogError(file_.string() + ": opened read-only");
+  if (in_tx_) throw LogError("zcorr log: a transaction is already open");
+  exec(db_, "BEGIN IMMEDIATE");
+  in_tx_ = true;
+  const auto seq = head_seq_;
+  const auto hash = head_hash_;
+  read_head();
+  if (seq != head_seq_ || hash != head_hash_) {
+    rollback();
+    throw LogError(file_.string() + ": the log was appended to by someone else (head seq " + std::to_string(head_seq_) +
+                   ", expected " + std::to_string(seq) + "); refusing to interleave writers");
+  }
+}
+
+void Log::commit() {
+  if (!in_tx_) return;
+  exec(db_, "COMMIT");
+  in_tx_ = false;
+}
+
+void Log::rollback() noexcept {
+  if (!in_tx_) return;
+  sqlite3_exec(db_, "ROLLBACK", nullptr, nullptr, nullptr);
+  in_tx_ = false;
+  try {
+    read_head();
+  } catch (...) {
+  }
+}
+
+std::int64_t Log::append(Table t, std::vector<Value>& values) {
+  if (!in_tx_) throw LogError("zcorr log: append outside a transaction");
+  const auto& info = table_info(t);
+  if (values.size() != info.columns.size()) throw std::logic_error("zcorr log: wrong number of values for " + std::string(info.name));
+  const std::int64_t seq = head_seq_ + 1;
+  values[0] = seq;
+  canonical_bytes(t, values, bytes_);
+  const Digest h = hasher_.chain(head_hash_, bytes_);
+  auto& s = insert_[static_cast<std::size_t>(t)];
+  int i = 1;
+  for (const auto& v : values) s.bind(i++, v);
+  s.bind_blob(i++, head_hash_.data(), head_hash_.size());
+  s.bind_blob(i, h.data(), h.size());
+  s.run();
+  head_seq_ = seq;
+  head_hash_ = h;
+  return seq;
+}
+
+}  // namespace zcorr::record

@@ -1,0 +1,267 @@
+#include "record/verify.hpp"
+
+#include <array>
+#include <cmath>
+#include <cstring>
+#include <optional>
+
+namespace zcorr::record {
+namespace {
+
+constexpr std::size_t col_index(std::span<const std::string_view> c, std::string_view name) {
+  for (std::size_t i = 0; i < c.size(); ++i)
+    if (c[i] == name) return i;
+  return c.size();
+}
+
+struct Cursor {
+  Table table;
+  Stmt stmt;
+  bool has = false;
+  std::int64_t seq = 0;
+};
+
+struct Row {
+  Table table;
+  std::int64_t seq;
+  std::vector<Value> values;
+  Digest prev{}, hash{};
+  bool prev_ok_len = false, hash_ok_len = false;
+};
+
+bool read_digest(const Stmt& s, int c, Digest& d) {
+  const auto* p = static_cast<const std::uint8_t*>(sqlite3_column_blob(s.raw(), c));
+  if (sqlite3_column_type(s.raw(), c) != SQLITE_BLOB || sqlite3_column_bytes(s.raw(), c) != 32 || !p) return false;
+  std::memcpy(d.data(), p, 32);
+  return true;
+}
+
+std::int64_t as_i64(const Value& v) { return v.index() == 1 ? std::get<std::int64_t>(v) : 0; }
+std::optional<double> as_f64(const Value& v) {
+  if (v.index() == 2) return std::get<double>(v);
+  if (v.index() == 1) return static_cast<double>(std::get<std::int64_t>(v));
+  return std::nullopt;
+}
+std::string as_text(const Value& v) { return v.index() == 3 ? std::get<std::string>(v) : std::string(); }
+
+std::int64_t row_time(const Row& r) {
+  const auto& c = table_info(r.table).columns;
+  for (auto name : {"start_utc_s", "time_utc_s", "valid_from_utc_s", "created_utc_s"}) {
+    auto i = col_index(c, name);
+    if (i < c.size()) return as_i64(r.values[i]);
+  }
+  return 0;
+}
+
+struct Sums {
+  std::int64_t n = 0, V_f = 0, V_b = 0, V_fault = 0, E = 0, m = 0;
+  std::int64_t min_start = INT64_MAX, max_end = INT64_MIN;
+  void add(std::int64_t vf, std::int64_t vb, std::int64_t vx, std::int64_t e, std::int64_t mm, std::int64_t s, std::int64_t en) {
+    ++n; V_f += vf; V_b += vb; V_fault += vx; E += e; m += mm;
+    min_start = std::min(min_start, s);
+    max_end = std::max(max_end, en);
+  }
+};
+
+struct PointState {
+  PointTotals cum;
+  Sums hour, day;
+};
+
+}  // namespace
+
+VerifyResult verify_log(const Log& log, std::size_t max_findings) {
+  VerifyResult out;
+  out.schema_version = log.schema_version();
+  sqlite3* db = log.db();
+  exec(db, "BEGIN");  // one consistent snapshot while a writer may be appending
+  struct EndTx {
+    sqlite3* db;
+    ~EndTx() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
+  } end_tx{db};
+
+  auto report = [&](const Row& r, std::string kind, std::string detail) {
+    ++out.findings_total;
+    if (out.findings.size() < max_findings)
+      out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail)});
+  };
+
+  std::vector<Cursor> cursors;
+  for (std::size_t t = 0; t < table_count; ++t) {
+    const auto& info = tables[t];
+    std::string sql = "SELECT ";
+    for (auto c : info.columns) sql += std::string(c) + ", ";
+    sql += "prev_hash, hash FROM " + std::string(info.name) + " ORDER BY seq";
+    Cursor c{static_cast<Table>(t), Stmt(db, sql)};
+    c.has = c.stmt.step();
+    if (c.has) c.seq = c.stmt.i64(0);
+    cursors.push_back(std::move(c));
+  }
+
+  Hasher hasher;
+  std::vector<std::uint8_t> bytes;
+  std::int64_t prev_seq = 0;
+  Digest prev_hash = zero_digest;
+  std::string prev_where = "the start of the log";
+  Table prev_table = Table::log_header;
+  std::int64_t prev_time = 0;
+  std::map<std::string, PointState> points;
+
+  const auto& ic = cols::interval;
+  const std::size_t i_point = col_index(ic, "point"), i_start = col_index(ic, "start_utc_s"), i_end = col_index(ic, "end_utc_s"),
+                    i_vf = col_index(ic, "V_f_m3"), i_vb = col_index(ic, "V_b_m3"), i_e = col_index(ic, "E_MJ"),
+                    i_m = col_index(ic, "mass_kg"), i_rvf = col_index(ic, "V_f_um3"), i_rvb = col_index(ic, "V_b_um3"),
+                    i_rvx = col_index(ic, "V_fault_um3"), i_re = col_index(ic, "E_J"), i_rm = col_index(ic, "mass_mg"),
+                    i_corr = col_index(ic, "corrects_seq");
+  const auto& qc = cols::qtr;
+  const std::size_t q_point = col_index(qc, "point"), q_period = col_index(qc, "period"), q_start = col_index(qc, "start_utc_s"),
+                    q_end = col_index(qc, "end_utc_s"), q_n = col_index(qc, "intervals"), q_vf = col_index(qc, "V_f_um3"),
+                    q_vb = col_index(qc, "V_b_um3"), q_vx = col_index(qc, "V_fault_um3"), q_e = col_index(qc, "E_J"),
+                    q_m = col_index(qc, "mass_mg"), q_cvf = col_index(qc, "cum_V_f_um3"), q_cvb = col_index(qc, "cum_V_b_um3"),
+                    q_cvx = col_index(qc, "cum_V_fault_um3"), q_ce = col_index(qc, "cum_E_J"), q_cm = col_index(qc, "cum_mass_mg"),
+                    q_corr = col_index(qc, "corrects_seq");
+
+  auto read_row = [&](Cursor& c) {
+    Row r{c.table, c.seq, {}};
+    const auto n = table_info(c.table).columns.size();
+    r.values.reserve(n);
+    for (std::size_t i = 0; i < n; ++i) r.values.push_back(c.stmt.value(static_cast<int>(i)));
+    r.prev_ok_len = read_digest(c.stmt, static_cast<int>(n), r.prev);
+    r.hash_ok_len = read_digest(c.stmt, static_cast<int>(n) + 1, r.hash);
+    c.has = c.stmt.step();
+    if (c.has) c.seq = c.stmt.i64(0);
+    return r;
+  };
+
+  auto content_ok = [&](const Row& r) {
+    if (!r.hash_ok_len || !r.prev_ok_len) return false;
+    canonical_bytes(r.table, r.values, bytes);
+    return hasher.chain(r.prev, bytes) == r.hash;
+  };
+
+  auto where = [](const Row& r) { return std::string(table_info(r.table).name) + " seq " + std::to_string(r.seq); };
+
+  // A correction must name an earlier record of its own table.
+  std::array<Stmt, table_count> exists;
+  for (std::size_t t = 0; t < table_count; ++t)
+    exists[t] = Stmt(db, "SELECT 1 FROM " + std::string(tables[t].name) + " WHERE seq = ?");
+  auto check_correction = [&](const Row& r) {
+    const auto& c = table_info(r.table).columns;
+    const auto i = col_index(c, "corrects_seq");
+    if (i >= c.size() || std::holds_alternative<Null>(r.values[i])) return;
+    const auto target = as_i64(r.values[i]);
+    auto& q = exists[static_cast<std::size_t>(r.table)];
+    q.bind(1, target);
+    const bool found = q.step();
+    q.reset();
+    if (!found || target >= r.seq)
+      report(r, "bad_correction", "corrects_seq " + std::to_string(target) + " is not an earlier " + std::string(table_info(r.table).name) +
+                                      " record");
+    const auto j = col_index(c, "correction_reason");
+    if (j < c.size() && as_text(r.values[j]).empty()) report(r, "bad_correction", "a correction without a correction_reason");
+  };
+
+  auto check_totals = [&](const Row& r) {
+    if (r.table == Table::interval) {
+      if (!std::holds_alternative<Null>(r.values[i_corr])) return;  // corrections are totalled by the audit
+      const auto vf = as_i64(r.values[i_rvf]), vb = as_i64(r.values[i_rvb]), vx = as_i64(r.values[i_rvx]),
+                 e = as_i64(r.values[i_re]), m = as_i64(r.values[i_rm]);
+      auto q = [](std::optional<double> v, double quantum) { return v ? std::llround(*v / quantum) : 0LL; };
+      if (q(as_f64(r.values[i_vf]), volume_quantum_m3) != vf)
+        report(r, "register_mismatch", "V_f_um3 does not equal V_f_m3 at 1e-6 m3");
+      else if (q(as_f64(r.values[i_vb]), volume_quantum_m3) != vb)
+        report(r, "register_mismatch", "V_b_um3 does not equal V_b_m3 at 1e-6 m3");
+      else if (q(as_f64(r.values[i_e]), 1e-6) != e)  // E_MJ in MJ, E_J in J
+        report(r, "register_mismatch", "E_J does not equal E_MJ at 1 J");
+      else if (q(as_f64(r.values[i_m]), mass_quantum_kg) != m)
+        report(r, "register_mismatch", "mass_mg does not equal mass_kg at 1e-6 kg");
+      else if (vx < 0 || vx > vf || vb < 0)
+        report(r, "register_mismatch", "V_fault_um3 outside [0, V_f_um3] or negative V_b_um3");
+      auto& p = points[as_text(r.values[i_point])];
+      const auto s = as_i64(r.values[i_start]), en = as_i64(r.values[i_end]);
+      p.cum.intervals++;
+      p.cum.V_f_um3 += vf; p.cum.V_b_um3 += vb; p.cum.V_fault_um3 += vx; p.cum.E_J += e; p.cum.mass_mg += m;
+      p.hour.add(vf, vb, vx, e, m, s, en);
+      p.day.add(vf, vb, vx, e, m, s, en);
+    } else if (r.table == Table::qtr) {
+      if (!std::holds_alternative<Null>(r.values[q_corr])) return;
+      auto& p = points[as_text(r.values[q_point])];
+      const bool hour = as_text(r.values[q_period]) == "hour";
+      Sums& s = hour ? p.hour : p.day;
+      const auto start = as_i64(r.values[q_start]), end = as_i64(r.values[q_end]);
+      std::string d;
+      if (as_i64(r.values[q_n]) != s.n) d = "intervals = " + std::to_string(as_i64(r.values[q_n])) + ", the log has " + std::to_string(s.n);
+      else if (as_i64(r.values[q_vf]) != s.V_f) d = "V_f_um3 = " + std::to_string(as_i64(r.values[q_vf])) + ", intervals sum to " + std::to_string(s.V_f);
+      else if (as_i64(r.values[q_vb]) != s.V_b) d = "V_b_um3 = " + std::to_string(as_i64(r.values[q_vb])) + ", intervals sum to " + std::to_string(s.V_b);
+      else if (as_i64(r.values[q_vx]) != s.V_fault) d = "V_fault_um3 = " + std::to_string(as_i64(r.values[q_vx])) + ", intervals sum to " + std::to_string(s.V_fault);
+      else if (as_i64(r.values[q_e]) != s.E) d = "E_J = " + std::to_string(as_i64(r.values[q_e])) + ", intervals sum to " + std::to_string(s.E);
+      else if (as_i64(r.values[q_m]) != s.m) d = "mass_mg = " + std::to_string(as_i64(r.values[q_m])) + ", intervals sum to " + std::to_string(s.m);
+      else if (as_i64(r.values[q_cvf]) != p.cum.V_f_um3 || as_i64(r.values[q_cvb]) != p.cum.V_b_um3 ||
+               as_i64(r.values[q_cvx]) != p.cum.V_fault_um3 || as_i64(r.values[q_ce]) != p.cum.E_J ||
+               as_i64(r.values[q_cm]) != p.cum.mass_mg)
+        d = "register readings (cum_*) differ from the running sums of the intervals (cum_V_b_um3 = " +
+            std::to_string(as_i64(r.values[q_cvb])) + ", intervals sum to " + std::to_string(p.cum.V_b_um3) + ")";
+      else if (s.n > 0 && (s.min_start < start || s.max_end > end))
+        d = "intervals since the previous " + std::string(hour ? "hourly" : "daily") + " record lie outside its period";
+      if (!d.empty()) report(r, "total_mismatch", d);
+      s = Sums{};
+    }
+  };
+
+  for (;;) {
+    // Next seq over all tables; gather every record claiming it.
+    std::int64_t next = INT64_MAX;
+    for (const auto& c : cursors)
+      if (c.has) next = std::min(next, c.seq);
+    if (next == INT64_MAX) break;
+    std::vector<Row> group;
+    for (auto& c : cursors)
+      while (c.has && c.seq == next) group.push_back(read_row(c));
+    out.records += static_cast<std::int64_t>(group.size());
+    for (const auto& r : group) out.per_table[std::string(table_info(r.table).name)]++;
+
+    // The genuine record links to the previous one and matches its hash.
+    std::size_t pick = 0;
+    bool found_good = false;
+    for (std::size_t i = 0; i < group.size(); ++i)
+      if (group[i].prev == prev_hash && content_ok(group[i])) { pick = i; found_good = true; break; }
+    const Row& r = group[pick];
+    for (std::size_t i = 0; i < group.size(); ++i)
+      if (i != pick)
+        report(group[i], "inserted", "a second record claims seq " + std::to_string(next) + " (the other is " + where(r) +
+                                         "): a record was inserted");
+    if (next != prev_seq + 1) {
+      report(r, "removed", "records seq " + std::to_string(prev_seq + 1) + ".." + std::to_string(next - 1) +
+                               " are missing between " + prev_where + " and " + where(r) + ": removed");
+    } else if (!found_good) {
+      if (!content_ok(r)) report(r, "changed", "the stored hash does not match the record's contents: the row was changed");
+      else {
+        // The record itself is intact but does not link: the one before it was
+        // changed and re-hashed. Name that one.
+        ++out.findings_total;
+        if (out.findings.size() < max_findings)
+          out.findings.push_back({std::string(table_info(prev_table).name), prev_seq, prev_time, "link_broken",
+                                  "its hash is not the prev_hash stored in " + where(r) +
+                                      ": the record was changed and re-hashed, or replaced"});
+      }
+    }
+    check_totals(r);
+    check_correction(r);
+    prev_seq = next;
+    prev_hash = r.hash;
+    prev_where = where(r);
+    prev_table = r.table;
+    prev_time = row_time(r);
+    if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
+  }
+  if (out.records == 0) {
+    ++out.findings_total;
+    out.findings.push_back({"log_header", 1, 0, "removed", "the log holds no records (the log header is missing)"});
+  }
+  out.last_seq = prev_seq;
+  out.head_hash = prev_hash;
+  for (auto& [name, p] : points) out.points[name] = p.cum;
+  return out;
+}
+
+}  // namespace zcorr::record

@@ -1,0 +1,63 @@
+// zcorr interval log: verification of the hash chain and of the totals.
+//
+// Reads every chained record in seq order (a merge over the tables), and
+//  * checks that seq runs 1, 2, 3 ... without gaps or duplicates (a removed
+//    or inserted record), that prev_hash equals the stored hash of the record
+//    before (a link broken by a change that was re-hashed), and that the
+//    stored hash equals SHA-256(prev_hash || canonical bytes) (a changed row);
+//  * checks each interval's registers against its own computed quantities
+//    (V_f_um3 = round(V_f_m3 / 1e-6 m3), ...), and every quantity transaction
+//    record against the intervals before it: period totals equal the sums of
+//    the intervals since the previous record of the same period, register
+//    readings equal the running sums since the point's first interval, and
+//    those intervals lie inside the period;
+//  * checks that a correction (corrects_seq set) names an earlier record of
+//    its own table and says why. Corrected records are left out of the
+//    running totals here; the audit totals original and corrected sets.
+// The first finding names the first bad row (table, seq, time).
+// Streamed: memory does not grow with the log.
+//
+// Limits: a hash chain without a secret key proves the log is internally
+// consistent; someone who rewrites every record after a change and
+// re-hashes all of them produces a consistent chain. Compare the head hash
+// (printed by `zcorr verify`) with a copy kept elsewhere to detect that, and
+// removal of the most recent records.
+#pragma once
+
+#include <cstdint>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "record/log.hpp"
+
+namespace zcorr::record {
+
+struct Finding {
+  std::string table;   // where the bad record is
+  std::int64_t seq;    // its chain position (= rowid)
+  std::int64_t time_utc_s;  // its start or event time, or 0 when it has none
+  std::string kind;    // changed, link_broken, removed, inserted, register_mismatch, total_mismatch, ...
+  std::string detail;  // human-readable
+};
+
+struct PointTotals {
+  std::int64_t intervals = 0;
+  std::int64_t V_f_um3 = 0, V_b_um3 = 0, V_fault_um3 = 0, E_J = 0, mass_mg = 0;
+};
+
+struct VerifyResult {
+  int schema_version = 0;
+  std::string log_id;
+  std::int64_t records = 0;
+  std::int64_t last_seq = 0;
+  Digest head_hash{};
+  std::map<std::string, std::int64_t> per_table;
+  std::map<std::string, PointTotals> points;
+  std::vector<Finding> findings;  // in chain order, at most max_findings
+  std::int64_t findings_total = 0;
+};
+
+[[nodiscard]] VerifyResult verify_log(const Log& log, std::size_t max_findings = 50);
+
+}  // namespace zcorr::record
