@@ -16,6 +16,7 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_convert(app, exit_code);
   zcorr::cli::setup_cases(app, exit_code);
   zcorr::cli::setup_demo(app, exit_code);
+  zcorr::cli::setup_validate(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {
