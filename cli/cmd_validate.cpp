@@ -227,6 +227,11 @@ std::string base_text(const BaseConditions& b) {
 
 int run_export(const ExportOptions& o) {
   const auto map = validate::load_column_map(o.map);
+  {
+    std::ifstream head(o.data, std::ios::binary);
+    if (!head) throw io::InputError("--data", o.data, "the file cannot be opened");
+    validate::check_header(head, o.data, map);
+  }
   // The command line wins over the map; base conditions must come from one of them.
   MethodOptions mo = o.method;
   const bool method_given = o.app->get_option("--method")->count() > 0;

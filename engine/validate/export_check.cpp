@@ -48,7 +48,44 @@ std::string with_unit(const std::string& text, const std::string& unit, const st
   return std::string(t) + " " + unit;
 }
 
+struct Columns {
+  int T = -1, P = -1, time = -1, V_f = -1;
+  std::array<int, max_components> x{};
+  std::array<int, checked_count> reported{};
+};
+
+void read_header(io::CsvReader& reader, std::vector<std::string>& header, std::string_view data_name) {
+  for (;;) {
+    if (!reader.next(header))
+      throw io::InputError("--data", std::string(data_name), "the file is empty (a header line is required)");
+    if (!header.empty() && !io::trim(header[0]).empty() && io::trim(header[0]).front() == '#') continue;
+    return;
+  }
+}
+
+Columns resolve_columns(const std::vector<std::string>& header, const ColumnMap& map) {
+  Columns c;
+  c.T = find_column(header, map.T, map);
+  c.P = find_column(header, map.P, map);
+  c.time = map.time ? find_column(header, *map.time, map) : -1;
+  c.x.fill(-1);
+  for (std::size_t i = 0; i < max_components; ++i)
+    if (map.component[i]) c.x[i] = find_column(header, *map.component[i], map);
+  c.reported.fill(-1);
+  for (std::size_t k = 0; k < checked_count; ++k)
+    if (map.reported[k]) c.reported[k] = find_column(header, *map.reported[k], map);
+  c.V_f = map.V_f ? find_column(header, *map.V_f, map) : -1;
+  return c;
+}
+
 }  // namespace
+
+void check_header(std::istream& data, std::string_view data_name, const ColumnMap& map) {
+  io::CsvReader reader(data);
+  std::vector<std::string> header;
+  read_header(reader, header, data_name);
+  (void)resolve_columns(header, map);
+}
 
 std::string status_brief(const Status& s) {
   std::string out = code_name(s.code);
@@ -70,24 +107,11 @@ ExportReport check_export(std::istream& data, std::string_view data_name, const 
 
   io::CsvReader reader(data);
   std::vector<std::string> header, row;
-  for (;;) {
-    if (!reader.next(header))
-      throw io::InputError("--data", std::string(data_name), "the file is empty (a header line is required)");
-    if (!header.empty() && !io::trim(header[0]).empty() && io::trim(header[0]).front() == '#') continue;
-    break;
-  }
-  const int col_T = find_column(header, map.T, map);
-  const int col_P = find_column(header, map.P, map);
-  const int col_time = map.time ? find_column(header, *map.time, map) : -1;
-  std::array<int, max_components> col_x;
-  col_x.fill(-1);
-  for (std::size_t i = 0; i < max_components; ++i)
-    if (map.component[i]) col_x[i] = find_column(header, *map.component[i], map);
-  std::array<int, checked_count> col_rep;
-  col_rep.fill(-1);
-  for (std::size_t k = 0; k < checked_count; ++k)
-    if (map.reported[k]) col_rep[k] = find_column(header, *map.reported[k], map);
-  const int col_Vf = map.V_f ? find_column(header, *map.V_f, map) : -1;
+  read_header(reader, header, data_name);
+  const auto cols = resolve_columns(header, map);
+  const int col_T = cols.T, col_P = cols.P, col_time = cols.time, col_Vf = cols.V_f;
+  const auto& col_x = cols.x;
+  const auto& col_rep = cols.reported;
 
   struct Prepared {
     Status prep;

@@ -37,6 +37,11 @@ struct ExportReport : ToleranceReport {
   std::size_t compositions = 0;  // distinct analyses met (each prepared once)
 };
 
+// Reads only the header and checks that every mapped column is there (throws
+// io::InputError as check_export would), so that a bad map is reported before
+// a method is built.
+void check_header(std::istream& data, std::string_view data_name, const ColumnMap& map);
+
 // `method` must not be prepared by the caller; it is prepared for each analysis.
 [[nodiscard]] ExportReport check_export(std::istream& data, std::string_view data_name, const ColumnMap& map,
                                         LineMethod& method, const BaseConditions& base, const Tolerances& tolerances,

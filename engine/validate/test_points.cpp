@@ -113,18 +113,18 @@ PointSet generate_points(LineMethod& method, const BaseConditions& base, const E
     double T_K, p_Pa;
   };
   std::vector<Spec> specs = {
-      {"pipe-01", "typical pipeline gas at a common line state (60 degF, 1000 psia)", gulf_coast, T60F, psia1000},
-      {"pipe-02", "lean pipeline gas, cool line, moderate pressure", gas1, 278.15, 3e6},
-      {"pipe-03", "rich pipeline gas (8.5 % ethane, 2.3 % propane) at high line pressure", gas3, 298.15, 9e6},
-      {"pipe-04", "high-CO2 gas (7.6 % CO2, 5.7 % N2)", gas5, 283.15, 5e6},
-      {"pipe-05", "high-nitrogen gas (13.5 % N2) at 60 degF, 1000 psia", high_n2, T60F, psia1000},
-      {"pipe-06", "rich North Sea gas (8.5 % ethane, 2.3 % propane, 0.7 % butanes)", ekofisk, 288.15, 7e6},
+      {"pipe-01", "typical pipeline gas at a common line state (60 degF and 1000 psia)", gulf_coast, T60F, psia1000},
+      {"pipe-02", "lean pipeline gas on a cool line at moderate pressure", gas1, 278.15, 3e6},
+      {"pipe-03", "rich pipeline gas (8.5 % ethane and 2.3 % propane) at high line pressure", gas3, 298.15, 9e6},
+      {"pipe-04", "high-CO2 gas (7.6 % CO2 and 5.7 % N2)", gas5, 283.15, 5e6},
+      {"pipe-05", "high-nitrogen gas (13.5 % N2) at 60 degF and 1000 psia", high_n2, T60F, psia1000},
+      {"pipe-06", "rich North Sea gas (8.5 % ethane; 2.3 % propane; 0.7 % butanes)", ekofisk, 288.15, 7e6},
       {"base-01", "state equal to the base conditions: Z_f must equal Z_b and C must be 1", gulf_coast, base.T_K, base.p_Pa},
       {"low-01", "low pressure just above the base: Z close to 1", gas1, 288.15, 0.2e6},
       {"edge-01", "cold high-pressure corner of the pipeline range", gas1, pipeline.T_min_K, pipeline.p_max_Pa},
       {"edge-02", "hot high-pressure corner of the pipeline range", gas1, pipeline.T_max_K, pipeline.p_max_Pa},
-      {"edge-03", "cold low-pressure corner of the pipeline range, rich gas", gas3, pipeline.T_min_K, 0.5e6},
-      {"edge-04", "hot low-pressure corner of the pipeline range, rich gas", gas3, pipeline.T_max_K, 0.5e6},
+      {"edge-03", "cold low-pressure corner of the pipeline range with the rich gas", gas3, pipeline.T_min_K, 0.5e6},
+      {"edge-04", "hot low-pressure corner of the pipeline range with the rich gas", gas3, pipeline.T_max_K, 0.5e6},
       {"crit-01",
        "rich gas at the lowest pipeline temperature and mid pressure: Z near its minimum and most sensitive to T and P "
        "(closest to the mixture's critical region inside the pipeline range)",
@@ -134,14 +134,14 @@ PointSet generate_points(LineMethod& method, const BaseConditions& base, const E
   // States beyond the pipeline region, where the method's own range reaches them.
   if (mb.T_min_K <= 195.0 && mb.p_max_Pa >= 5e6)
     specs.push_back({"wide-01",
-                     "pure methane just above its critical point (190.564 K, 4.5992 MPa; Setzmann & Wagner 1991, from "
-                     "memory): the steepest Z surface of the set",
+                     "pure methane just above its critical point (190.564 K and 4.5992 MPa per Setzmann & Wagner 1991; "
+                     "from memory): the steepest Z surface of the set",
                      methane, 195.0, 5e6});
   if (mb.T_min_K <= 150.0)
-    specs.push_back({"wide-02", "low-temperature gas state: pure methane at 150 K, 0.5 MPa (below its vapour pressure, about 1 MPa, from memory)",
+    specs.push_back({"wide-02", "low-temperature gas state: pure methane at 150 K and 0.5 MPa (below its vapour pressure of about 1 MPa; from memory)",
                      methane, 150.0, 0.5e6});
   if (mb.T_min_K <= 250.0 && mb.p_max_Pa >= 20e6)
-    specs.push_back({"wide-03", "lean gas, high-pressure state below the pipeline temperatures", gas1, 250.0, 20e6});
+    specs.push_back({"wide-03", "lean gas in a high-pressure state below the pipeline temperatures", gas1, 250.0, 20e6});
   if (mb.p_max_Pa > pipeline.p_max_Pa)
     specs.push_back({"wide-04", "highest pressure of the method's normal range at ambient temperature", gas1, 300.0, mb.p_max_Pa});
   if (mb.T_max_K > pipeline.T_max_K && mb.p_max_Pa > pipeline.p_max_Pa)

@@ -39,7 +39,7 @@ namespace zcorr::validate {
 
 struct TestPoint {
   std::string id;   // stable, e.g. "pipe-03"
-  std::string why;  // one line: why this point is in the set
+  std::string why;  // one line without commas (the simplest CSV tools can split the file): why the point is there
   std::string gas;  // name of the analysis (with its source in gas_source)
   std::string_view gas_source;
   Fractions<double> x{};
