@@ -11,5 +11,6 @@ void setup_cases(CLI::App& app, int& exit_code);
 void setup_convert(CLI::App& app, int& exit_code);
 void setup_demo(CLI::App& app, int& exit_code);
 void setup_validate(CLI::App& app, int& exit_code);
+void setup_props(CLI::App& app, int& exit_code);
 
 }  // namespace zcorr::cli

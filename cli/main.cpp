@@ -8,6 +8,7 @@ int main(int argc, char** argv) {
   CLI::App app{"zcorr: compressibility factors and base-volume corrections for natural-gas measurement"};
   app.footer(std::string("\nExamples:\n"
                          "  zcorr z --method gerg2008 --T \"15 degC\" --p \"5 MPa\" --gas \"methane=0.95,ethane=0.03,nitrogen=0.02\"\n"
+                         "  zcorr props --gas \"methane=0.95,ethane=0.03,nitrogen=0.02\" --combustion-ref 25 --metering-ref 0\n"
                          "  zcorr cases\n\n") +
              zcorr::cli::caution_text);
   app.require_subcommand(1);
@@ -17,6 +18,7 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_cases(app, exit_code);
   zcorr::cli::setup_demo(app, exit_code);
   zcorr::cli::setup_validate(app, exit_code);
+  zcorr::cli::setup_props(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

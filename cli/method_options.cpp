@@ -5,15 +5,15 @@
 namespace zcorr::cli {
 
 void MethodOptions::add_to(CLI::App& app) {
-  app.add_option("--method", method, "Method: gerg2008, detail, sgerg88, gross1, gross2")->capture_default_str();
+  app.add_option("--method", method, "Method: gerg2008, detail, sgerg88, gross1, gross2, iso6976 (reference conditions only)")->capture_default_str();
   app.add_flag("--allow-outside-range", allow_outside_range,
                "Compute states outside the method's validated range (flagged 'extrapolated' in the status)");
 }
 
 std::unique_ptr<LineMethod> MethodOptions::make() const {
   auto id = method_from_name(method);
-  if (!id || *id == MethodId::iso6976)
-    throw io::InputError("--method", method, "use gerg2008, detail, sgerg88, gross1 or gross2");
+  if (!id)
+    throw io::InputError("--method", method, "use gerg2008, detail, sgerg88, gross1, gross2 or iso6976 (reference conditions only)");
   auto m = make_line_method(*id);
   if (!m) throw io::InputError("--method", method, "this method is not available in this build of zcorr");
   return m;

@@ -5,8 +5,10 @@
 
 #include "core/base_conditions.hpp"
 #include "eval/line_method.hpp"
+#include "methods/iso6976.hpp"
 #include "io/composition_parse.hpp"
 #include "io/input_error.hpp"
+#include "io/iso6976_refs.hpp"
 #include "io/text.hpp"
 #include "io/units_parse.hpp"
 
@@ -46,7 +48,7 @@ std::map<std::string, double> kind_unit(const RefCase& c) {
 // the method's quantities by name (Z, rho_mol_per_L, B_cm3_per_mol, ...).
 std::map<std::string, double> kind_state(const RefCase& c) {
   auto m = method_from_name(c.input("method"));
-  if (!m) throw io::InputError("method", c.input("method"), "use gerg2008, detail, sgerg88, gross1 or gross2");
+  if (!m) throw io::InputError("method", c.input("method"), "use gerg2008, detail, sgerg88, gross1, gross2 or iso6976 (reference conditions only)");
   auto method = make_line_method(*m);
   if (!method) throw io::InputError("method", c.input("method"), "this method is not built into this binary");
   auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));
@@ -77,12 +79,33 @@ std::map<std::string, double> kind_correction(const RefCase& c) {
   return {{"Fp", f.Fp}, {"Ft", f.Ft}, {"Fz", f.Fz}, {"C", f.C}, {"Fpv", f.Fpv}};
 }
 
+// kind = iso6976: `composition`, `combustion_T`, `metering_T` (ISO 6976
+// reference temperatures, e.g. "25 degC", "60 degF"), optional `metering_p`
+// (default 101.325 kPa). Results are the fields of iso6976::Properties by
+// name, plus doubtful_data (1 when the status carries the flag, else 0).
+std::map<std::string, double> kind_iso6976(const RefCase& c) {
+  auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));
+  const auto t1 = io::parse_combustion_ref(c.input("combustion_T"), "combustion_T");
+  const auto t2 = io::parse_metering_ref(c.input("metering_T"), "metering_T");
+  const double p2 = c.has("metering_p") ? io::parse_pressure_Pa(c.input("metering_p"), "metering_p") : 101325.0;
+  const auto r = iso6976::properties(comp.x, t1, t2, p2);
+  if (!r.status.ok()) throw io::InputError("iso6976", c.id, std::string("not computed: ") + code_name(r.status.code));
+  return {{"M_g_per_mol", r.M_g_per_mol},     {"Z", r.Z},
+          {"G_ideal", r.G_ideal},             {"d", r.d},
+          {"rho_kg_per_m3", r.rho_kg_per_m3}, {"Hs_kJ_per_mol", r.Hs_kJ_per_mol},
+          {"Hi_kJ_per_mol", r.Hi_kJ_per_mol}, {"Hs_MJ_per_kg", r.Hs_MJ_per_kg},
+          {"Hi_MJ_per_kg", r.Hi_MJ_per_kg},   {"Hs_MJ_per_m3", r.Hs_MJ_per_m3},
+          {"Hi_MJ_per_m3", r.Hi_MJ_per_m3},   {"Ws_MJ_per_m3", r.Ws_MJ_per_m3},
+          {"Wi_MJ_per_m3", r.Wi_MJ_per_m3},   {"doubtful_data", r.status.has(flag::doubtful_data) ? 1.0 : 0.0}};
+}
+
 // The registry: one line per kind.
 const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
   static const std::vector<std::pair<std::string_view, KindFn>> table{
       {"unit", kind_unit},
       {"state", kind_state},
       {"correction", kind_correction},
+      {"iso6976", kind_iso6976},
   };
   return table;
 }

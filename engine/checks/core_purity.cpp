@@ -9,11 +9,30 @@
 #include "core/solve_options.hpp"
 #include "core/status.hpp"
 #include "core/units.hpp"
+#include "data/iso6976_data.hpp"
+#include "methods/iso6976.hpp"
+#include "methods/gerg2008.hpp"
 
 namespace zcorr {
 
 // Instantiate the templates in double so their bodies are compiled.
 template Status check_fractions<double>(const Fractions<double>&, double) noexcept;
 template CorrectionFactors<double> correction_factors<double>(double, double, double, double, double, double) noexcept;
+template Status gerg2008::prepare<double>(const Fractions<double>&, gerg2008::Prepared<double>&) noexcept;
+template gerg2008::Properties<double> gerg2008::state<double>(const gerg2008::Prepared<double>&, const double&, const double&,
+                                                              const SolveOptions&, bool) noexcept;
+template gerg2008::Properties<double> gerg2008::properties_at_density<double>(const gerg2008::Prepared<double>&, const double&,
+                                                                              const double&) noexcept;
+template ZResult<double> gerg2008::z_factor<double>(const gerg2008::Prepared<double>&, const double&, const double&,
+                                                    const SolveOptions&) noexcept;
+template gerg2008::Residual<double> gerg2008::alphar<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
+template double gerg2008::pressure_Pa<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
+
+
+namespace iso6976 {
+template Properties<double> properties<double>(const Fractions<double>&, CombustionRef, MeteringRef, double) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef) noexcept;
+template DoubtfulRows doubtful_components<double>(const Fractions<double>&, CombustionRef, MeteringRef) noexcept;
+}  // namespace iso6976
 
 }  // namespace zcorr
