@@ -335,6 +335,9 @@ TEST(TestPoints, EachPointHasAReasonAndTheMethodsAnswers) {
   bool have_wide = false, have_crit = false;
   for (const auto& p : set.points) {
     EXPECT_FALSE(p.why.empty()) << p.id;
+    // No commas or quotes in the text fields: the points file splits on commas with the simplest tools.
+    EXPECT_EQ(p.why.find_first_of(",\""), std::string::npos) << p.id;
+    EXPECT_EQ(p.gas.find_first_of(",\""), std::string::npos) << p.id;
     EXPECT_FALSE(p.gas_source.empty()) << p.id;
     EXPECT_GT(p.Z_f, 0.0);
     EXPECT_TRUE(check_fractions(p.x).ok()) << p.id;
