@@ -92,7 +92,8 @@ struct AnswersOptions {
 std::string ppm(double v) {
   if (std::isnan(v)) return "-";
   std::ostringstream s;
-  s << std::fixed << std::setprecision(std::abs(v) < 10.0 ? 2 : 1) << v;
+  if (v != 0.0 && std::abs(v) < 0.01) s << std::scientific << std::setprecision(1) << v;
+  else s << std::fixed << std::setprecision(std::abs(v) < 10.0 ? 2 : 1) << v;
   return s.str();
 }
 
@@ -113,18 +114,18 @@ std::vector<std::size_t> shown_quantities(const validate::ToleranceReport& rep) 
 }
 
 void print_text(const validate::ToleranceReport& rep, const std::vector<std::string>& heading, bool all_rows,
-                const char* row_word) {
+                const char* row_word, const char* reference_word) {
   for (const auto& h : heading) std::cout << h << '\n';
   std::cout << '\n'
             << std::left << std::setw(6) << "qty" << std::right << std::setw(10) << "tol ppm" << std::setw(10) << "compared"
-            << std::setw(9) << "outside" << std::setw(14) << "max |dev| ppm" << std::setw(9) << "at row" << std::setw(16)
+            << std::setw(9) << "outside" << std::setw(15) << "max |dev| ppm" << std::setw(8) << "at row" << std::setw(18)
             << "median |dev| ppm" << std::setw(14) << "mean dev ppm" << '\n';
   for (std::size_t k = 0; k < checked_count; ++k) {
     const auto& s = rep.summary[k];
     if (s.compared == 0) continue;
     std::cout << std::left << std::setw(6) << checked_names[k] << std::right << std::setw(10) << io::format_number(rep.tolerances.ppm[k])
-              << std::setw(10) << s.compared << std::setw(9) << s.outside << std::setw(14) << ppm(s.max_abs_ppm) << std::setw(9)
-              << s.max_row << std::setw(16) << ppm(s.median_abs_ppm) << std::setw(14) << signed_ppm(s.mean_ppm) << '\n';
+              << std::setw(10) << s.compared << std::setw(9) << s.outside << std::setw(15) << ppm(s.max_abs_ppm) << std::setw(8)
+              << s.max_row << std::setw(18) << ppm(s.median_abs_ppm) << std::setw(14) << signed_ppm(s.mean_ppm) << '\n';
   }
   std::size_t outside = 0;
   for (const auto& r : rep.rows) {
@@ -135,7 +136,7 @@ void print_text(const validate::ToleranceReport& rep, const std::vector<std::str
       const auto& c = r.q[k];
       if (!c.compared || (c.within && !all_rows)) continue;
       std::cout << "  row " << r.row << " (line " << r.line << ") " << r.label << ": " << checked_names[k] << " reported "
-                << io::format_sig(c.reported, 10) << ", recomputed " << io::format_sig(c.recomputed, 10) << ", "
+                << io::format_sig(c.reported, 10) << ", " << reference_word << ' ' << io::format_sig(c.recomputed, 10) << ", "
                 << signed_ppm(c.dev_ppm) << " ppm" << (c.within ? "" : "  OUTSIDE") << '\n';
     }
   }
@@ -165,11 +166,12 @@ void print_text(const validate::ToleranceReport& rep, const std::vector<std::str
   }
 }
 
-void print_csv(const validate::ToleranceReport& rep, const char* label_name) {
+void print_csv(const validate::ToleranceReport& rep, const char* label_name, const char* reference_word) {
   const auto shown = shown_quantities(rep);
   std::vector<std::string> head{"row", "line", label_name, "verdict", "status"};
   for (auto k : shown)
-    for (const char* suffix : {"_reported", "_recomputed", "_dev_ppm", "_within"}) head.push_back(std::string(checked_names[k]) + suffix);
+    for (const std::string& suffix : std::vector<std::string>{"_reported", "_" + std::string(reference_word), "_dev_ppm", "_within"})
+      head.push_back(std::string(checked_names[k]) + suffix);
   head.emplace_back("problem");
   io::write_csv_row(std::cout, head);
   for (const auto& r : rep.rows) {
@@ -187,7 +189,7 @@ void print_csv(const validate::ToleranceReport& rep, const char* label_name) {
   }
 }
 
-nlohmann::json report_json(const validate::ToleranceReport& rep, const char* label_name) {
+nlohmann::json report_json(const validate::ToleranceReport& rep, const char* label_name, const char* reference_word) {
   nlohmann::json j;
   j["passed"] = rep.passed();
   j["rows"] = rep.rows.size();
@@ -212,7 +214,7 @@ nlohmann::json report_json(const validate::ToleranceReport& rep, const char* lab
     for (std::size_t k = 0; k < checked_count; ++k) {
       const auto& c = r.q[k];
       if (!c.compared) continue;
-      row[std::string(checked_names[k])] = {{"reported", c.reported}, {"recomputed", c.recomputed},
+      row[std::string(checked_names[k])] = {{"reported", c.reported}, {reference_word, c.recomputed},
                                             {"dev_ppm", c.dev_ppm},   {"within", c.within}};
     }
     j["details"].push_back(row);
@@ -252,7 +254,7 @@ int run_export(const ExportOptions& o) {
   if (!data) throw io::InputError("--data", o.data, "the file cannot be opened");
   auto rep = validate::check_export(data, o.data, map, *method, base, tol, mo.eval_options(false));
   if (o.format == Format::json) {
-    auto j = report_json(rep, "time");
+    auto j = report_json(rep, "time", "recomputed");
     j["command"] = "validate export";
     j["data"] = o.data;
     j["map"] = o.map;
@@ -261,14 +263,14 @@ int run_export(const ExportOptions& o) {
     j["analyses"] = rep.compositions;
     std::cout << j.dump(2) << '\n';
   } else if (o.format == Format::csv) {
-    print_csv(rep, "time");
+    print_csv(rep, "time", "recomputed");
   } else {
     print_text(rep,
                {"zcorr validate export: " + o.data + " read with the map " + o.map,
                 "recomputed with " + mo.method + " at base conditions " + base_text(base),
                 std::to_string(rep.rows.size()) + " rows, " + std::to_string(rep.compositions) +
                     " analyses; Z_b by the same method at base conditions; deviation = (reported - recomputed) / recomputed"},
-               o.all_rows, "rows");
+               o.all_rows, "rows", "recomputed");
   }
   return rep.passed() ? exit_ok : exit_partial;
 }
@@ -313,19 +315,19 @@ int run_answers(const AnswersOptions& o) {
   };
   auto rep = validate::compare_answers(in, o.file, o.tol.resolve(std::nullopt), provider);
   if (o.format == Format::json) {
-    auto j = report_json(rep, "point");
+    auto j = report_json(rep, "point", "expected");
     j["command"] = "validate answers";
     j["file"] = o.file;
     j["expected_recomputed"] = rep.expected_checked;
     std::cout << j.dump(2) << '\n';
   } else if (o.format == Format::csv) {
-    print_csv(rep, "point");
+    print_csv(rep, "point", "expected");
   } else {
     print_text(rep,
                {"zcorr validate answers: " + o.file,
                 std::to_string(rep.rows.size()) +
                     " points; expected values recomputed and confirmed; deviation = (reported - expected) / expected"},
-               o.all_rows, "points");
+               o.all_rows, "points", "expected");
   }
   return rep.passed() ? exit_ok : exit_partial;
 }

@@ -1,5 +1,6 @@
 #include "validate/test_points.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 #include <map>
@@ -215,12 +216,17 @@ void write_points_csv(std::ostream& out, const PointSet& set, const Tolerances& 
       << "# Then run: zcorr validate answers --file <this file>\n"
       << "# Tolerance (ppm, relative): Z_f " << io::format_number(tol[Checked::Z_f]) << ", Z_b "
       << io::format_number(tol[Checked::Z_b]) << ", C " << io::format_number(tol[Checked::C]) << "\n";
-  for (const auto& p : set.points) out << "# " << p.gas << ": " << p.gas_source << "\n";
+  std::vector<std::string_view> listed;
+  for (const auto& p : set.points) {
+    if (std::find(listed.begin(), listed.end(), p.gas) != listed.end()) continue;
+    listed.push_back(p.gas);
+    out << "# gas " << p.gas << ": " << p.gas_source << "\n";
+  }
   std::vector<std::string> head{"point", "why", "gas", "method", "base_T_K", "base_P_kPa", "T_K", "T_degC",
                                 "T_degF", "P_kPa", "P_MPa", "P_psia"};
   for (std::size_t i = 0; i < max_components; ++i)
     if (used[i]) head.push_back(std::string(component_name(i)) + mol_pct_suffix);
-  head.insert(head.end(), {"Z_f_expected", "Z_b_expected", "C_expected", "Z_f_reported", "Z_b_reported", "C_reported"});
+  head.insert(head.end(), {"status", "Z_f_expected", "Z_b_expected", "C_expected", "Z_f_reported", "Z_b_reported", "C_reported"});
   io::write_csv_row(out, head);
   for (const auto& p : set.points) {
     std::vector<std::string> row{p.id,
@@ -237,7 +243,7 @@ void write_points_csv(std::ostream& out, const PointSet& set, const Tolerances& 
                                  io::format_sig(p.p_Pa / units::psi, 9)};
     for (std::size_t i = 0; i < max_components; ++i)
       if (used[i]) row.push_back(io::format_sig(p.x[i] * 100.0, 10));
-    row.insert(row.end(), {io::format_sig(p.Z_f, answer_digits), io::format_sig(p.Z_b, answer_digits),
+    row.insert(row.end(), {status_brief(p.status), io::format_sig(p.Z_f, answer_digits), io::format_sig(p.Z_b, answer_digits),
                            io::format_sig(p.C, answer_digits), "", "", ""});
     io::write_csv_row(out, row);
   }

@@ -14,7 +14,7 @@
 //   '#' comment lines (method, base, how to use the file), then a header:
 //   point, why, gas, method, base_T_K, base_P_kPa, T_K, T_degC, T_degF,
 //   P_kPa, P_MPa, P_psia (absolute), <component>_mol_pct for every component
-//   used, Z_f_expected, Z_b_expected, C_expected, Z_f_reported,
+//   used, status (the method's status of the line state), Z_f_expected, Z_b_expected, C_expected, Z_f_reported,
 //   Z_b_reported, C_reported (empty, for the technician to fill in).
 // Columns are found by name, so a spreadsheet may reorder them or add others.
 //
