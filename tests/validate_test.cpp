@@ -4,11 +4,12 @@
 // The logic is tested with a test double (FakeMethod below): an invented
 // smooth Z(T, p, x) that is not any published method. It only has to be a
 // deterministic LineMethod; no value here is checked against an outside
-// source. The checks with a real method are in the CLI tests
-// (tests/cli/validate.tests.cmake).
+// source. The WithGerg2008 suite at the end runs the same logic with the real
+// GERG-2008 method; the CLI tests are in tests/cli/validate.tests.cmake.
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <fstream>
 #include <sstream>
 
 #include "core/units.hpp"
@@ -508,4 +509,66 @@ TEST(Answers, UnansweredOrAlteredPointsDoNotPass) {
 TEST(Answers, AFileWithoutTheColumnsIsUnusable) {
   std::istringstream in("point,T_K\nx,300\n");
   expect_input_error([&] { (void)compare_answers(in, "f.csv", {}, nullptr); }, {"f.csv header", "'method'", "missing"});
+}
+
+// With the real GERG-2008 method (engine/methods/gerg2008.hpp through the registry).
+namespace {
+std::unique_ptr<LineMethod> gerg() { return make_line_method(MethodId::gerg2008); }
+}  // namespace
+
+TEST(WithGerg2008, EveryPlannedPointIsInsideTheNormalRange) {
+  auto m = gerg();
+  ASSERT_NE(m, nullptr);
+  auto set = generate_points(*m, *find_base_preset("iso15"));
+  for (const auto& s : set.skipped) ADD_FAILURE() << s.id << " skipped: " << status_brief(s.status);
+  EXPECT_EQ(set.points.size(), 19u);
+  for (const auto& p : set.points) {
+    EXPECT_TRUE(p.status.ok()) << p.id;
+    EXPECT_NE(p.status.range, RangeClass::outside) << p.id;
+    EXPECT_GT(p.Z_f, 0.3) << p.id;
+    EXPECT_LT(p.Z_f, 1.2) << p.id;
+  }
+}
+
+TEST(WithGerg2008, TheCommittedExactExportValidatesAndThePlantedOneDoesNot) {
+  // tests/cli/data/validate: made by zcorr itself (README.md there).
+  const std::string dir = std::string(ZCORR_SOURCE_DIR) + "/tests/cli/data/validate/";
+  const auto map = load_column_map(dir + "export.zmap");
+  ASSERT_TRUE(map.base);
+  for (const char* name : {"exact_export.csv", "planted_export.csv"}) {
+    auto m = gerg();
+    ASSERT_NE(m, nullptr);
+    std::ifstream in(dir + name);
+    ASSERT_TRUE(in) << name;
+    auto rep = check_export(in, name, map, *m, *map.base, {});
+    ASSERT_EQ(rep.rows.size(), 24u);
+    EXPECT_EQ(rep.not_recomputed, 0u);
+    EXPECT_EQ(rep.compositions, 2u);
+    if (std::string(name) == "exact_export.csv") {
+      EXPECT_TRUE(rep.passed());
+      EXPECT_LT(rep[Checked::Z_f].max_abs_ppm, 1e-3);
+      EXPECT_LT(rep[Checked::C].max_abs_ppm, 1e-3);
+    } else {
+      EXPECT_FALSE(rep.passed());
+      EXPECT_EQ(rep.rows_outside(), 3u);
+      for (std::size_t row : {4u, 9u, 17u}) {
+        EXPECT_FALSE(rep.rows[row - 1].all_within()) << row;
+        EXPECT_NEAR(rep.rows[row - 1][Checked::Z_f].dev_ppm, 200.0, 1e-3) << row;
+      }
+    }
+  }
+}
+
+TEST(WithGerg2008, PointsAnsweredExactlyPass) {
+  auto m = gerg();
+  ASSERT_NE(m, nullptr);
+  auto set = generate_points(*m, *find_base_preset("us60f_14.73"));
+  auto provider = [&m](MethodId id) -> LineMethod* { return id == MethodId::gerg2008 ? m.get() : nullptr; };
+  auto file = answered(set, [](std::size_t, const std::vector<std::string>& f, const std::map<std::string, std::size_t>& c) {
+    return std::array<std::string, 3>{f[c.at("Z_f_expected")], f[c.at("Z_b_expected")], f[c.at("C_expected")]};
+  });
+  std::istringstream in(file);
+  auto rep = compare_answers(in, "g.csv", {}, provider);
+  EXPECT_TRUE(rep.passed());
+  EXPECT_EQ(rep.not_recomputed, 0u);  // the expected values written to 10 digits survive the recomputation check
 }
