@@ -52,6 +52,19 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   zcorr_cli_test(NAME validate.export_planted_json
                  ARGS validate export --data ${VAL}/planted_export.csv --map ${VAL}/export.zmap --method gerg2008 --format json
                  EXPECT_EXIT 1 MATCH "\"passed\": false.*\"rows_outside\": 3")
+  # The export was made for 60 degF / 14.73 psia: checking it against 14.696 psia (a
+  # flow computer configured with the wrong base pressure) fails every row in C.
+  zcorr_cli_test(NAME validate.export_wrong_base
+                 ARGS validate export --data ${VAL}/exact_export.csv --map ${VAL}/export.zmap --method gerg2008 --base us60f_14.696
+                 EXPECT_EXIT 1 MATCH "C +50 +24 +24 .*RESULT: FAIL - 24 of 24 rows outside tolerance")
+  # Base conditions must be stated: on the command line or in the map.
+  zcorr_cli_test(NAME validate.export_no_base
+                 ARGS validate export --data ${VAL}/exact_export.csv --map ${VAL}/no_base.zmap --method gerg2008
+                 EXPECT_EXIT 2 MATCH "--base: '\\(missing\\)'")
+  zcorr_cli_test(NAME validate.export_base_on_command_line
+                 ARGS validate export --data ${VAL}/exact_export.csv --map ${VAL}/no_base.zmap --method gerg2008
+                      --base-T "60 degF" --base-p "14.73 psia"
+                 MATCH "RESULT: PASS")
   # A tolerance wider than the planted error accepts it.
   zcorr_cli_test(NAME validate.export_planted_wide
                  ARGS validate export --data ${VAL}/planted_export.csv --map ${VAL}/export.zmap --method gerg2008 --tolerance-ppm 250
