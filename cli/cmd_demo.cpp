@@ -82,7 +82,7 @@ int run_demo(const DemoOptions& o) {
             << "  gas         " << demo_gas << '\n'
             << "  Z_b         " << fixed(conv.Z_b(), 6) << "   Hs " << fixed(conv.Hs_MJ_per_m3(), 4)
             << " MJ/m3 (ISO 6976, combustion " << combustion_ref_name(setup.combustion) << ")\n\n";
-  std::cout << " hour   p_f kPag  T_f degC    V_f m3      Z_f          C       V_b m3     energy GJ\n";
+  std::cout << " hour     p_f kPag  T_f degC    V_f m3      Z_f          C       V_b m3     energy GJ\n";
   double sum_Vf = 0, sum_Vb = 0, sum_E = 0, sum_m = 0;
   int not_computed = 0;
   for (int h = 1; h <= 24; ++h) {
@@ -90,7 +90,8 @@ int run_demo(const DemoOptions& o) {
     const double p_f = (r.p_kPag + demo_atm_kPa) * 1000.0;
     const double T_f = r.T_degC + 273.15;
     auto c = conv.convert(r.V_f_m3, T_f, p_f);
-    std::cout << std::setw(5) << r.hour << std::setw(11) << fixed(r.p_kPag, 1) << std::setw(10) << fixed(r.T_degC, 2)
+    const int start = (r.hour + 5) % 24, end = (r.hour + 6) % 24;
+    std::cout << ' ' << std::setfill('0') << std::setw(2) << start << "-" << std::setw(2) << end << std::setfill(' ') << std::setw(9) << fixed(r.p_kPag, 1) << std::setw(10) << fixed(r.T_degC, 2)
               << std::setw(10) << fixed(r.V_f_m3, 1);
     if (!c.status.ok()) {
       ++not_computed;

@@ -165,7 +165,7 @@ int run_batch(const ZOptions& o) {
       for (std::size_t i = 0; i < max_components; ++i)
         if (col_x[i] >= 0 && !io::trim(row[static_cast<std::size_t>(col_x[i])]).empty())
           x[i] = io::parse_number(row[static_cast<std::size_t>(col_x[i])], component_name(i));
-      auto comp = io::finish_composition(x, copt, "row");
+      auto comp = io::finish_composition(x, copt, "composition");
       if (!have_last || comp.x != last) {
         last_prep = method->prepare(comp.x);
         last = comp.x;
@@ -179,7 +179,12 @@ int run_batch(const ZOptions& o) {
         status = status_text(out.status);
       }
     } catch (const io::InputError& e) {
-      status = std::string("invalid_input;") + e.what();
+      const auto& f = e.field();
+      const char* code = f == "T_K" ? "invalid_temperature"
+                         : f == "P_kPa" ? "invalid_pressure"
+                         : (f.rfind("composition", 0) == 0 || find_component(f)) ? "invalid_composition"
+                                                                          : "invalid_input";
+      status = std::string(code) + ";" + e.what();
       out.status = make_status(Code::invalid_input);
     }
     const bool ok = out.status.ok();

@@ -37,6 +37,13 @@ NumberWithUnit split_unit(std::string_view text, std::string_view field) {
       break;
     ++n;
   }
+  if (n == 0) {
+    auto lower = std::string(t.substr(0, 3));
+    for (auto& ch : lower) ch = static_cast<char>(ch | 0x20);
+    if (lower == "nan" || lower == "inf")
+      throw InputError(std::string(field), std::string(text), "the value must be finite (not NaN or infinity)");
+    throw InputError(std::string(field), std::string(text), "expected a number followed by its unit, e.g. \"15 degC\" or \"5 MPa\"");
+  }
   NumberWithUnit r{parse_number(t.substr(0, n), field), std::string(trim(t.substr(n)))};
   return r;
 }
