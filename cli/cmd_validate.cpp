@@ -149,6 +149,15 @@ void print_text(const validate::ToleranceReport& rep, const std::vector<std::str
   }
   first = true;
   for (const auto& r : rep.rows) {
+    const bool flagged = r.status.range == RangeClass::expanded || r.status.range == RangeClass::outside ||
+                         (r.status.flags & ~flag::sum_not_unity) != 0;
+    if (!r.recomputed || !flagged) continue;
+    if (first) std::cout << "\nRecomputed, but the method flags the state:\n";
+    first = false;
+    std::cout << "  row " << r.row << " (line " << r.line << ") " << r.label << ": " << validate::status_brief(r.status) << '\n';
+  }
+  first = true;
+  for (const auto& r : rep.rows) {
     if (!r.recomputed || r.any_compared()) continue;
     if (first) std::cout << "\nNothing reported to compare:\n";
     first = false;
