@@ -20,7 +20,8 @@ constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
 // The gases of the point set, mole fractions in canonical component order.
 // Sources (as recorded in the project's standards notes; compositions only,
-// the expected answers always come from the method):
+// the expected answers always come from the method; two invented gases at the
+// composition limits are marked as such):
 //   ISO 12213-2 Annex C example gases 1, 3 and 5 (from memory, high confidence);
 //   AGA Report No. 8 example gases Gulf Coast, Ekofisk and High N2
 //   (from memory, medium-high), given there in mol %.
@@ -68,10 +69,17 @@ const Gas& gas(int i) {
        fractions({{C::methane, 81.441}, {C::nitrogen, 13.465}, {C::carbon_dioxide, 0.985}, {C::ethane, 3.300},
                   {C::propane, 0.605}, {C::isobutane, 0.100}, {C::n_butane, 0.104}},
                  0.01)},
+      // Invented for the point set: at the edges of the ISO 12213-2 pipeline-quality
+      // composition limits (methane >= 0.70, ethane <= 0.10, CO2 <= 0.20, H2 <= 0.10;
+      // from memory, medium).
+      {"edge_lean_methane", "invented at the ISO 12213-2 limits: methane 0.70 (minimum) and ethane 0.10 (maximum); limits from memory",
+       fractions({{C::methane, 0.70}, {C::ethane, 0.10}, {C::nitrogen, 0.10}, {C::carbon_dioxide, 0.10}}, 1.0)},
+      {"edge_hydrogen", "invented at the ISO 12213-2 hydrogen limit (0.10); limit from memory",
+       fractions({{C::methane, 0.85}, {C::hydrogen, 0.10}, {C::nitrogen, 0.03}, {C::ethane, 0.02}}, 1.0)},
   };
   return gases[i];
 }
-enum GasId { methane, gas1, gas3, gas5, gulf_coast, ekofisk, high_n2 };
+enum GasId { methane, gas1, gas3, gas5, gulf_coast, ekofisk, high_n2, edge_lean, edge_h2 };
 
 struct Box {
   double T_min_K, T_max_K, p_max_Pa;
@@ -131,6 +139,10 @@ PointSet generate_points(LineMethod& method, const BaseConditions& base, const E
        "(closest to the mixture's critical region inside the pipeline range)",
        gas3, pipeline.T_min_K, 7e6},
       {"crit-02", "as crit-01 for the richest gas of the set", ekofisk, pipeline.T_min_K, 6e6},
+      {"comp-01", "composition edge: least methane and most ethane of pipeline quality (with 10 % N2 and 10 % CO2)",
+       edge_lean, 288.15, 6e6},
+      {"comp-02", "composition edge: hydrogen-blended gas at the pipeline-quality hydrogen limit (10 % H2)", edge_h2,
+       288.15, 6e6},
   };
   // States beyond the pipeline region, where the method's own range reaches them.
   if (mb.T_min_K <= 195.0 && mb.p_max_Pa >= 5e6)
