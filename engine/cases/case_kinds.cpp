@@ -66,6 +66,38 @@ std::map<std::string, double> kind_state(const RefCase& c) {
   return r;
 }
 
+// kind = gross: `method` (sgerg88 | gross1 | gross2), gross inputs `Hs`
+// (MJ/m3), `d`, `x_CO2`, `x_H2`, `x_N2` (as the method needs), `T`, `p`
+// (with units); results as for kind = state.
+std::map<std::string, double> kind_gross(const RefCase& c) {
+  auto m = method_from_name(c.input("method"));
+  if (!m || (*m != MethodId::sgerg88 && *m != MethodId::gross1 && *m != MethodId::gross2))
+    throw io::InputError("method", c.input("method"), "use sgerg88, gross1 or gross2");
+  auto method = make_line_method(*m);
+  if (!method) throw io::InputError("method", c.input("method"), "this method is not built into this binary");
+  GrossInputs g;
+  auto opt_number = [&](const char* key, double& v) {
+    if (c.has(key)) v = io::parse_number(c.input(key), key);
+  };
+  opt_number("Hs", g.Hs_MJ_per_m3);
+  opt_number("d", g.d);
+  opt_number("x_CO2", g.x_CO2);
+  opt_number("x_H2", g.x_H2);
+  opt_number("x_N2", g.x_N2);
+  auto st = method->prepare_gross(g);
+  if (!st.ok()) throw io::InputError("gross inputs", c.id, std::string("refused by the method: ") + code_name(st.code));
+  const double T = io::parse_temperature_K(c.input("T"), "T");
+  const double p = io::parse_pressure_Pa(c.input("p"), "p");
+  EvalOptions opt;
+  opt.derived = true;
+  auto out = method->state(T, p, opt);
+  if (!out.status.ok()) throw io::InputError("state", c.input("T") + ", " + c.input("p"), std::string("not computed: ") + code_name(out.status.code));
+  std::map<std::string, double> r;
+  for (std::size_t i = 0; i < out.q.size(); ++i)
+    if (out.has(static_cast<Quantity>(i))) r[std::string(quantity_names[i])] = out.q[i];
+  return r;
+}
+
 // kind = correction: line `p_f`, `T_f`, `Z_f`, base `p_b`, `T_b`, `Z_b`.
 std::map<std::string, double> kind_correction(const RefCase& c) {
   const double pf = io::parse_pressure_Pa(c.input("p_f"), "p_f");
@@ -104,6 +136,7 @@ const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
   static const std::vector<std::pair<std::string_view, KindFn>> table{
       {"unit", kind_unit},
       {"state", kind_state},
+      {"gross", kind_gross},
       {"correction", kind_correction},
       {"iso6976", kind_iso6976},
   };
