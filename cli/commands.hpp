@@ -10,6 +10,7 @@ void setup_z(CLI::App& app, int& exit_code);
 void setup_cases(CLI::App& app, int& exit_code);
 void setup_convert(CLI::App& app, int& exit_code);
 void setup_demo(CLI::App& app, int& exit_code);
+void setup_validate(CLI::App& app, int& exit_code);
 void setup_props(CLI::App& app, int& exit_code);
 void setup_record(CLI::App& app, int& exit_code);
 void setup_verify(CLI::App& app, int& exit_code);

@@ -17,6 +17,7 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_convert(app, exit_code);
   zcorr::cli::setup_cases(app, exit_code);
   zcorr::cli::setup_demo(app, exit_code);
+  zcorr::cli::setup_validate(app, exit_code);
   zcorr::cli::setup_props(app, exit_code);
   zcorr::cli::setup_record(app, exit_code);
   zcorr::cli::setup_verify(app, exit_code);
