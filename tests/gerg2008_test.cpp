@@ -307,7 +307,7 @@ TEST(Gerg2008Multiprecision, DoubleAgreesWith50Digits) {
 // --- limits ------------------------------------------------------------------
 
 // Second virial coefficients of the pure fluids, cm^3/mol. Source:
-// /work/shared/reference/standards-notes.md table "Second virial coefficients"
+// the project standards notes (shared data set reference/standards-notes.md), table "Second virial coefficients"
 // (computed from the reference equations of state of Setzmann-Wagner 1991 methane,
 // Span 2000 nitrogen, Span-Wagner 1996 CO2, Buecker-Wagner 2006 ethane; +-1-2 %).
 // GERG-2008's pure-fluid equations are different (shorter) equations, so +-2 %
