@@ -159,6 +159,9 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   res.records = v.records;
   res.log_id = v.log_id;
   res.head_hash_hex = record::to_hex(v.head_hash);
+  std::map<std::string, std::size_t> cum_open;
+  std::map<std::string, std::int64_t> cum_count;
+  std::map<std::string, std::string> first_cum_detail;
   for (const auto& f : v.findings) {
     AuditFinding a;
     const bool totals = f.kind == "register_mismatch" || f.kind == "total_mismatch";
@@ -180,6 +183,23 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
       }
     }
     if (opt.selection.point && !a.point.empty() && a.point != *opt.selection.point) continue;
+    // One changed interval puts every later register reading of its point
+    // out: those follow-on readings are one finding.
+    const bool cum = f.kind == "total_mismatch" && f.detail.find("register readings") != std::string::npos;
+    if (cum) {
+      if (auto it = cum_open.find(a.point); it != cum_open.end()) {
+        AuditFinding& o = res.findings[it->second];
+        o.from_utc_s = std::min(o.from_utc_s, a.from_utc_s);
+        o.to_utc_s = std::max(o.to_utc_s, a.to_utc_s);
+        o.last_seq = a.last_seq;
+        ++cum_count[a.point];
+        o.detail = first_cum_detail[a.point] + " (and " + std::to_string(cum_count[a.point]) +
+                   " later quantity records of the point, whose register readings carry the same difference)";
+        continue;
+      }
+      cum_open[a.point] = res.findings.size();
+      first_cum_detail[a.point] = a.detail;
+    }
     res.findings.push_back(a);
   }
   if (v.findings_total > static_cast<std::int64_t>(v.findings.size())) {
