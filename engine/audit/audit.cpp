@@ -6,6 +6,7 @@
 #include <fstream>
 #include <set>
 #include <sstream>
+#include <thread>
 
 #include "io/input_error.hpp"
 #include "io/units_parse.hpp"
@@ -154,62 +155,25 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   AuditResult res;
   sqlite3* db = log.db();
 
-  // 1. The chain and the totals (the verifier).
-  const record::VerifyResult v = record::verify_log(log, opt.max_chain_findings);
-  res.records = v.records;
-  res.log_id = v.log_id;
-  res.head_hash_hex = record::to_hex(v.head_hash);
-  std::map<std::string, std::size_t> cum_open;
-  std::map<std::string, std::int64_t> cum_count;
-  std::map<std::string, std::string> first_cum_detail;
-  for (const auto& f : v.findings) {
-    AuditFinding a;
-    const bool totals = f.kind == "register_mismatch" || f.kind == "total_mismatch";
-    a.kind = totals ? Kind::totals_mismatch : Kind::broken_chain;
-    a.severity = Severity::critical;
-    a.first_seq = a.last_seq = f.seq;
-    a.from_utc_s = a.to_utc_s = f.time_utc_s;
-    a.detail = f.kind + ": " + f.table + " seq " + std::to_string(f.seq) + ": " + f.detail;
-    if (f.table == "interval" || f.table == "qtr") {
-      Stmt s(db, "SELECT point, start_utc_s, end_utc_s, V_b_um3, E_J FROM " + f.table + " WHERE seq = ?");
-      s.bind(1, f.seq);
-      if (s.step()) {
-        a.point = s.text(0);
-        a.from_utc_s = s.i64(1);
-        a.to_utc_s = s.i64(2);
-        a.V_b_m3 = static_cast<double>(s.i64(3)) * record::volume_quantum_m3;
-        a.E_MJ = static_cast<double>(s.i64(4)) * 1e-6;
-        a.intervals = f.table == "interval" ? 1 : 0;
-      }
+  // 1. The chain and the totals (the verifier), on a second connection in a
+  // second thread while this one replays (both only read the file).
+  record::VerifyResult v;
+  std::exception_ptr verify_error;
+  std::thread verifier;
+  auto verify = [&] {
+    try {
+      record::Log vlog(log.file(), {record::OpenMode::read_only});
+      v = record::verify_log(vlog, opt.max_chain_findings);
+    } catch (...) {
+      verify_error = std::current_exception();
     }
-    if (opt.selection.point && !a.point.empty() && a.point != *opt.selection.point) continue;
-    // One changed interval puts every later register reading of its point
-    // out: those follow-on readings are one finding.
-    const bool cum = f.kind == "total_mismatch" && f.detail.find("register readings") != std::string::npos;
-    if (cum) {
-      if (auto it = cum_open.find(a.point); it != cum_open.end()) {
-        AuditFinding& o = res.findings[it->second];
-        o.from_utc_s = std::min(o.from_utc_s, a.from_utc_s);
-        o.to_utc_s = std::max(o.to_utc_s, a.to_utc_s);
-        o.last_seq = a.last_seq;
-        ++cum_count[a.point];
-        o.detail = first_cum_detail[a.point] + " (and " + std::to_string(cum_count[a.point]) +
-                   " later quantity records of the point, whose register readings carry the same difference)";
-        continue;
-      }
-      cum_open[a.point] = res.findings.size();
-      first_cum_detail[a.point] = a.detail;
-    }
-    res.findings.push_back(a);
-  }
-  if (v.findings_total > static_cast<std::int64_t>(v.findings.size())) {
-    AuditFinding a;
-    a.kind = Kind::broken_chain;
-    a.severity = Severity::critical;
-    a.detail = std::to_string(v.findings_total - static_cast<std::int64_t>(v.findings.size())) +
-               " more chain or totals findings not listed";
-    res.findings.push_back(a);
-  }
+  };
+  if (opt.parallel) verifier = std::thread(verify);
+  else verify();
+  struct Join {
+    std::thread& t;
+    ~Join() { if (t.joinable()) t.join(); }
+  } join{verifier};
 
   // 2. Configurations without their event.
   {
@@ -372,19 +336,20 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     }
     // The method's range at the averaged state.
     {
-      const Status& st = r.state_status;
       std::string why;
       Severity sev = Severity::warning;
-      if (st.code == Code::out_of_range || st.range == RangeClass::outside || st.has(flag::extrapolated)) {
+      const bool have_state = std::isfinite(iv.p_avg_Pa) && std::isfinite(iv.T_avg_K);
+      if (have_state && (r.calc_status.rfind("out_of_range", 0) == 0 || r.calc_status.find("range=outside") != std::string::npos ||
+                         (r.flags & record::iflag::extrapolated))) {
         why = "outside the method's range";
         sev = Severity::critical;
-      } else if (st.range == RangeClass::expanded) {
+      } else if (have_state && (r.flags & record::iflag::expanded_range)) {
         why = "in the method's expanded range only";
       }
       if (!why.empty())
         runs.add(Kind::outside_method_range, sev, why, iv, Vb, E, 0,
                  "the averaged state (p " + num(iv.p_avg_Pa) + " Pa, T " + num(iv.T_avg_K) + " K) is " + why + " (" +
-                     std::string(code_name(st.code)) + ", range " + std::string(range_name(st.range)) + ")");
+                     r.calc_status + ")");
     }
     // The recalculation.
     const double worst = r.worst_ppm();
@@ -401,6 +366,65 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   });
   runs.close_all();
   res.replay = rp.totals();
+
+  // The verifier's findings.
+  if (verifier.joinable()) verifier.join();
+  if (verify_error) std::rethrow_exception(verify_error);
+  res.records = v.records;
+  res.log_id = v.log_id;
+  res.head_hash_hex = record::to_hex(v.head_hash);
+  std::map<std::string, std::size_t> cum_open;
+  std::map<std::string, std::int64_t> cum_count;
+  std::map<std::string, std::string> first_cum_detail;
+  for (const auto& f : v.findings) {
+    AuditFinding a;
+    const bool totals = f.kind == "register_mismatch" || f.kind == "total_mismatch";
+    a.kind = totals ? Kind::totals_mismatch : Kind::broken_chain;
+    a.severity = Severity::critical;
+    a.first_seq = a.last_seq = f.seq;
+    a.from_utc_s = a.to_utc_s = f.time_utc_s;
+    a.detail = f.kind + ": " + f.table + " seq " + std::to_string(f.seq) + ": " + f.detail;
+    if (f.table == "interval" || f.table == "qtr") {
+      Stmt s(db, "SELECT point, start_utc_s, end_utc_s, V_b_um3, E_J FROM " + f.table + " WHERE seq = ?");
+      s.bind(1, f.seq);
+      if (s.step()) {
+        a.point = s.text(0);
+        a.from_utc_s = s.i64(1);
+        a.to_utc_s = s.i64(2);
+        a.V_b_m3 = static_cast<double>(s.i64(3)) * record::volume_quantum_m3;
+        a.E_MJ = static_cast<double>(s.i64(4)) * 1e-6;
+        a.intervals = f.table == "interval" ? 1 : 0;
+      }
+    }
+    if (opt.selection.point && !a.point.empty() && a.point != *opt.selection.point) continue;
+    // One changed interval puts every later register reading of its point
+    // out: those follow-on readings are one finding.
+    const bool cum = f.kind == "total_mismatch" && f.detail.find("register readings") != std::string::npos;
+    if (cum) {
+      if (auto it = cum_open.find(a.point); it != cum_open.end()) {
+        AuditFinding& o = res.findings[it->second];
+        o.from_utc_s = std::min(o.from_utc_s, a.from_utc_s);
+        o.to_utc_s = std::max(o.to_utc_s, a.to_utc_s);
+        o.last_seq = a.last_seq;
+        ++cum_count[a.point];
+        o.detail = first_cum_detail[a.point] + " (and " + std::to_string(cum_count[a.point]) +
+                   " later quantity records of the point, whose register readings carry the same difference)";
+        continue;
+      }
+      cum_open[a.point] = res.findings.size();
+      first_cum_detail[a.point] = a.detail;
+    }
+    res.findings.push_back(a);
+  }
+  if (v.findings_total > static_cast<std::int64_t>(v.findings.size())) {
+    AuditFinding a;
+    a.kind = Kind::broken_chain;
+    a.severity = Severity::critical;
+    a.detail = std::to_string(v.findings_total - static_cast<std::int64_t>(v.findings.size())) +
+               " more chain or totals findings not listed";
+    res.findings.push_back(a);
+  }
+
 
   std::stable_sort(res.findings.begin(), res.findings.end(), [](const AuditFinding& a, const AuditFinding& b) {
     if (a.point != b.point) return a.point < b.point;

@@ -89,6 +89,7 @@ struct AuditOptions {
   double max_analysis_age_h = 840;     // 35 days (common practice: a monthly spot sample, with margin)
   double tolerance_ppm = recalculation_bar_ppm;
   std::size_t max_chain_findings = 1000;
+  bool parallel = true;  // check the chain on a second connection in a second thread while replaying
 };
 
 struct AuditResult {

@@ -158,7 +158,7 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.calc_status = c.calc_status;
   r.Z_f = c.Z_f;
   r.Z_b = c.Z_b;
-  if (gas_.usable && have_state) r.state_status = m->state(iv.T_avg_K, iv.p_avg_Pa, eval_).status;
+  r.flags = c.flags;
   const bool logged_per_sample = iv.integration == "per_sample";
   if (logged_per_sample && std::isfinite(iv.I) && gas_.usable) {
     r.V_b_m3 = iv.I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);

@@ -82,8 +82,8 @@ struct IntervalReplay {
   std::string why_not;  // when not replayed
   double Z_f = nan_v, Z_b = nan_v, C = nan_v, V_b_m3 = 0, E_MJ = nan_v;
   std::int64_t V_b_um3 = 0, E_J = 0;
-  Status state_status{};  // the method's status at the averages (range class)
-  std::string calc_status;
+  std::int64_t flags = 0;  // record::iflag bits of the recomputation (expanded_range, extrapolated, calc_failed, ...)
+  std::string calc_status; // the method's status at the averages ('ok', 'out_of_range', 'ok;range=expanded', ...)
   double dZ_f_ppm = nan_v, dZ_b_ppm = nan_v, dC_ppm = nan_v, dV_b_ppm = nan_v, dE_ppm = nan_v;
   [[nodiscard]] double worst_ppm() const noexcept;  // largest |deviation|
 };
