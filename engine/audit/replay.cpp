@@ -159,10 +159,15 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.Z_f = c.Z_f;
   r.Z_b = c.Z_b;
   r.flags = c.flags;
-  const bool logged_per_sample = iv.integration == "per_sample";
-  if (logged_per_sample && std::isfinite(iv.I) && gas_.usable) {
-    r.V_b_m3 = iv.I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
-    r.C = V_conv > 0 ? r.V_b_m3 / V_conv : c.C;
+  // With part of the interval in alarm, V_conv is known only to the fault
+  // register's resolution (1e-6 m3), which for a nearly all-alarm interval
+  // can be many ppm of V_conv: then the base volume comes from the logged
+  // integral value as for per_sample, and C is not compared.
+  const bool via_integral = iv.integration == "per_sample" || iv.V_fault_um3 != 0;
+  if (via_integral && gas_.usable) {
+    const double I = std::isfinite(iv.I) ? iv.I : 0.0;
+    r.V_b_m3 = I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
+    r.C = V_conv > 0 && I > 0 ? r.V_b_m3 / V_conv : c.C;
     r.E_MJ = std::isfinite(gas_.Hs_MJ_per_m3) ? r.V_b_m3 * gas_.Hs_MJ_per_m3 : nan_v;
   } else {
     r.V_b_m3 = c.V_b_m3;
@@ -174,7 +179,7 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.E_J = record::to_register(r.E_MJ, 1e-6);
   r.dZ_f_ppm = ppm(r.Z_f, iv.Z_f);
   r.dZ_b_ppm = ppm(r.Z_b, iv.Z_b);
-  r.dC_ppm = ppm(r.C, iv.C);
+  r.dC_ppm = iv.V_fault_um3 != 0 && r.V_b_m3 != 0 ? nan_v : ppm(r.C, iv.C);
   r.dV_b_ppm = ppm(r.V_b_m3, iv.V_b_m3);
   r.dE_ppm = std::isfinite(iv.E_MJ) || std::isfinite(r.E_MJ) ? ppm(r.E_MJ, iv.E_MJ) : nan_v;
   // A register of zero both ways is agreement whatever the factors say.

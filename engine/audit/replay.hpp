@@ -18,6 +18,9 @@
 //    base volume is V_b = I * T_b * Z_b / p_b with the logged integral value
 //    I (the samples behind I are not kept in the log, so I itself cannot be
 //    recomputed; what follows from it can).
+//  * an interval partly in alarm (V_fault > 0): V_conv is known only to the
+//    fault register's resolution, so V_b comes from the logged I as for
+//    per_sample and C is not compared.
 // The comparison is relative, in ppm of the logged value. The industry's
 // recalculation bar is 50 ppm of the logged quantity (API MPMS 21.1, as
 // summarised in the project's standards notes).
