@@ -14,6 +14,7 @@
 #include "commands.hpp"
 #include "common.hpp"
 #include "io/input_error.hpp"
+#include "io/units_parse.hpp"
 #include "record/quantities.hpp"
 #include "record/timeutil.hpp"
 
@@ -22,6 +23,8 @@ namespace {
 
 struct AuditCliOptions {
   std::string db, point, from, to, contract;
+  std::string wi_method, wi_base_T, wi_base_p;
+  std::int64_t wi_analysis = 0;
   double max_age_h = 840;
   double tolerance_ppm = audit::recalculation_bar_ppm;
   Format format = Format::text;
@@ -68,6 +71,11 @@ int run_audit_cmd(const AuditCliOptions& o) {
   ao.max_analysis_age_h = o.max_age_h;
   ao.tolerance_ppm = o.tolerance_ppm;
 
+  if (!o.wi_method.empty()) ao.what_if.method = o.wi_method;
+  if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
+  if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
+  if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
+
   AuditResult r;
   try {
     record::Log log(o.db, {record::OpenMode::read_only});
@@ -101,6 +109,13 @@ int run_audit_cmd(const AuditCliOptions& o) {
                    {"max_dC_ppm", json_num(t.max_dC_ppm)},
                    {"max_dV_b_ppm", json_num(t.max_dV_b_ppm)},
                    {"max_dE_ppm", json_num(t.max_dE_ppm)}};
+    if (r.what_if_run)
+      j["what_if"] = {{"intervals", r.what_if.intervals},
+                      {"recomputed", r.what_if.replayed},
+                      {"V_b_m3_logged", record::decimal(r.what_if.V_b_um3_logged, 6)},
+                      {"V_b_m3_what_if", record::decimal(r.what_if.V_b_um3_replayed, 6)},
+                      {"E_MJ_logged", record::decimal(r.what_if.E_J_logged, 6)},
+                      {"E_MJ_what_if", record::decimal(r.what_if.E_J_replayed, 6)}};
     j["findings"] = nlohmann::json::array();
     for (const auto& f : r.findings)
       j["findings"].push_back({{"kind", kind_name(f.kind)},
@@ -149,6 +164,12 @@ int run_audit_cmd(const AuditCliOptions& o) {
                 << " m3 (" << fixed(rp.worst_ppm(), 1) << " ppm)\n";
     if (r.over_bar_total > static_cast<std::int64_t>(r.over_bar.size()))
       std::cout << "  ... " << (r.over_bar_total - static_cast<std::int64_t>(r.over_bar.size())) << " more\n";
+    if (r.what_if_run)
+      std::cout << "what-if    " << r.what_if.replayed << " of " << r.what_if.intervals << " intervals recomputed: base volume "
+                << record::decimal(r.what_if.V_b_um3_logged, 6) << " m3 logged, " << record::decimal(r.what_if.V_b_um3_replayed, 6)
+                << " m3 what-if (" << record::decimal(r.what_if.V_b_um3_replayed - r.what_if.V_b_um3_logged, 6) << "); energy "
+                << record::decimal(r.what_if.E_J_logged, 6) << " MJ logged, " << record::decimal(r.what_if.E_J_replayed, 6)
+                << " MJ what-if (" << record::decimal(r.what_if.E_J_replayed - r.what_if.E_J_logged, 6) << ")\n";
     if (clean) {
       std::cout << "result     nothing found\n";
     } else {
@@ -180,6 +201,10 @@ void setup_audit(CLI::App& app, int& exit_code) {
       ->capture_default_str();
   sub->add_option("--tolerance-ppm", opt->tolerance_ppm, "Allowed recalculation difference, ppm (API 21.1 bar: 50)")
       ->capture_default_str();
+  sub->add_option("--what-if-method", opt->wi_method, "What-if: recompute with this line method (totals side by side)");
+  sub->add_option("--what-if-base-T", opt->wi_base_T, "What-if: base temperature, e.g. \"60 degF\"");
+  sub->add_option("--what-if-base-p", opt->wi_base_p, "What-if: base pressure, absolute, e.g. \"14.73 psia\"");
+  sub->add_option("--what-if-analysis", opt->wi_analysis, "What-if: use this gas_analysis record (seq) for every interval");
   add_format_option(*sub, opt->format);
   sub->footer(
       "\nFinding kinds: broken_chain, totals_mismatch, gap, overlap, duplicate, stale_analysis, contract_mismatch,\n"

@@ -211,6 +211,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     Stmt s(db, "SELECT corrects_seq FROM interval WHERE corrects_seq IS NOT NULL");
     while (s.step()) corrected.insert(s.i64(0));
   }
+  const MethodFactory what_if_methods = methods;
   Replayer rp(log, std::move(methods));
   std::map<std::int64_t, std::string> contract_diff;  // config seq -> differences ("" = none)
   auto contract_check = [&](std::int64_t config_seq, const std::string& point) -> const std::string& {
@@ -366,6 +367,14 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   });
   runs.close_all();
   res.replay = rp.totals();
+  if (opt.what_if.any()) {
+    if (opt.what_if.analysis_seq && !rp.analyses().count(*opt.what_if.analysis_seq))
+      throw io::InputError("what-if analysis", std::to_string(*opt.what_if.analysis_seq), "the seq of a gas_analysis record of the log");
+    Replayer w(log, what_if_methods, {}, opt.what_if);
+    w.run(opt.selection, [](const LoggedInterval&, const IntervalReplay&) {});
+    res.what_if = w.totals();
+    res.what_if_run = true;
+  }
 
   // The verifier's findings.
   if (verifier.joinable()) verifier.join();

@@ -89,6 +89,7 @@ struct AuditOptions {
   double max_analysis_age_h = 840;     // 35 days (common practice: a monthly spot sample, with margin)
   double tolerance_ppm = recalculation_bar_ppm;
   std::size_t max_chain_findings = 1000;
+  WhatIf what_if;        // when any() is set: a second replay with these changes, totals side by side
   bool parallel = true;  // check the chain on a second connection in a second thread while replaying
 };
 
@@ -102,6 +103,8 @@ struct AuditResult {
   std::int64_t V_b_um3 = 0, E_J = 0;
   std::vector<std::pair<LoggedInterval, IntervalReplay>> over_bar;  // at most 100 intervals missing the bar, for the report
   std::int64_t over_bar_total = 0;
+  bool what_if_run = false;
+  ReplayTotals what_if;  // V_b_um3_logged / E_J_logged: as logged; *_replayed: with the what-if changes
 };
 
 // Runs every check. Throws record::LogError when the log cannot be read.

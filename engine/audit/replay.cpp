@@ -51,8 +51,8 @@ std::string logged_interval_columns() {
          "V_fault_um3, E_J, flags, calc_status, method, corrects_seq";
 }
 
-Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval)
-    : log_(log), factory_(std::move(methods)), eval_(eval) {
+Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if)
+    : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)) {
   using record::Stmt;
   {
     std::string sql = "SELECT ";
@@ -94,20 +94,24 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     r.why_not = "its configuration record seq " + std::to_string(iv.config_seq) + " is not in the log";
     return r;
   }
-  const record::PointConfig& cfg = cit->second;
+  record::PointConfig cfg = cit->second;
+  if (what_if_.method) cfg.method = *what_if_.method;
+  if (what_if_.base_T_K) cfg.base_T_K = *what_if_.base_T_K;
+  if (what_if_.base_p_Pa) cfg.base_p_Pa = *what_if_.base_p_Pa;
+  const std::int64_t analysis_seq = what_if_.analysis_seq.value_or(iv.analysis_seq);
   LineMethod* m = method_for(cfg.method);
   if (!m) {
     r.why_not = "method '" + cfg.method + "' is not available in this build";
     return r;
   }
   // The gas in force, prepared as the recorder prepares it (Recorder::set_gas).
-  if (gas_method_ != cfg.method || gas_config_ != iv.config_seq || gas_analysis_ != iv.analysis_seq) {
+  if (gas_method_ != cfg.method || gas_config_ != iv.config_seq || gas_analysis_ != analysis_seq) {
     gas_ = record::GasInForce{};
     gas_method_ = cfg.method;
     gas_config_ = iv.config_seq;
-    gas_analysis_ = iv.analysis_seq;
-    const auto ait = iv.analysis_seq ? analyses_.find(iv.analysis_seq) : analyses_.end();
-    if (iv.analysis_seq && ait == analyses_.end()) {
+    gas_analysis_ = analysis_seq;
+    const auto ait = analysis_seq ? analyses_.find(analysis_seq) : analyses_.end();
+    if (analysis_seq && ait == analyses_.end()) {
       gas_.status = "no_analysis";
     } else if (ait != analyses_.end()) {
       const GasRecord& g = ait->second;
@@ -165,7 +169,9 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   // integral value as for per_sample, and C is not compared.
   const bool via_integral = iv.integration == "per_sample" || iv.V_fault_um3 != 0;
   if (via_integral && gas_.usable) {
-    const double I = std::isfinite(iv.I) ? iv.I : 0.0;
+    double I = std::isfinite(iv.I) ? iv.I : 0.0;
+    const bool z_f_changes = what_if_.method || what_if_.analysis_seq;
+    if (z_f_changes && std::isfinite(iv.Z_f) && std::isfinite(c.Z_f) && c.Z_f != 0) I *= iv.Z_f / c.Z_f;
     r.V_b_m3 = I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
     r.C = V_conv > 0 && I > 0 ? r.V_b_m3 / V_conv : c.C;
     r.E_MJ = std::isfinite(gas_.Hs_MJ_per_m3) ? r.V_b_m3 * gas_.Hs_MJ_per_m3 : nan_v;

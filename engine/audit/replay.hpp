@@ -97,10 +97,25 @@ struct ReplayTotals {
   double max_dZ_f_ppm = 0, max_dZ_b_ppm = 0, max_dC_ppm = 0, max_dV_b_ppm = 0, max_dE_ppm = 0;
 };
 
+// What-if recomputation: the same intervals with another method, base
+// condition or analysis. The integral value I is rescaled by Z_f(logged) /
+// Z_f(what-if) at the averages when the method or the analysis changes
+// (exact for average_then_correct, first order for per_sample); it does not
+// depend on the base conditions. Energy is the what-if base volume times the
+// analysis' Hs as logged (Hs stated at the configured base conditions; with
+// another base condition and an analysis that gives Hs, the energy figure
+// is therefore not re-based -- a known limit). Not written to the log.
+struct WhatIf {
+  std::optional<std::string> method;
+  std::optional<double> base_T_K, base_p_Pa;
+  std::optional<std::int64_t> analysis_seq;  // use this gas_analysis record for every interval
+  [[nodiscard]] bool any() const noexcept { return method || base_T_K || base_p_Pa || analysis_seq; }
+};
+
 // Reads a log's configurations and analyses once, then replays intervals.
 class Replayer {
  public:
-  Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval = {});
+  Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval = {}, WhatIf what_if = {});
   Replayer(const Replayer&) = delete;
   Replayer& operator=(const Replayer&) = delete;
 
@@ -121,6 +136,7 @@ class Replayer {
   const record::Log& log_;
   MethodFactory factory_;
   EvalOptions eval_;
+  WhatIf what_if_;
   std::map<std::int64_t, record::PointConfig> configs_;
   std::map<std::int64_t, GasRecord> analyses_;
   std::map<std::string, std::unique_ptr<LineMethod>> methods_;

@@ -37,3 +37,12 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   set_tests_properties(cli.audit_demo_clean cli.audit_demo_json cli.audit_demo_range cli.audit_demo_contract PROPERTIES DEPENDS cli.demo_week)
   set_tests_properties(cli.audit_demo_contract PROPERTIES FIXTURES_REQUIRED cli_audit)
 endif()
+
+# What-if: the demo's week at another base condition, totals side by side (the audit itself stays clean).
+if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
+  zcorr_cli_test(NAME audit_demo_what_if ARGS audit --db ${DEMO_DB} --what-if-base-T "60 degF" --what-if-base-p "14.73 psia"
+                 MATCH "what-if    10080 of 10080 intervals recomputed: base volume 12772369.578410 m3 logged, 12767[0-9.]+ m3 what-if.*nothing found")
+  zcorr_cli_test(NAME audit_demo_what_if_bad_analysis ARGS audit --db ${DEMO_DB} --what-if-analysis 3 EXPECT_EXIT 2
+                 MATCH "the seq of a gas_analysis record")
+  set_tests_properties(cli.audit_demo_what_if cli.audit_demo_what_if_bad_analysis PROPERTIES DEPENDS cli.demo_week)
+endif()
