@@ -10,6 +10,8 @@
 #include "common.hpp"
 #include "eval/conversion.hpp"
 #include "io/input_error.hpp"
+#include "io/iso6976_refs.hpp"
+#include "iso6976_provenance.hpp"
 #include "io/text.hpp"
 #include "io/units_parse.hpp"
 #include "method_options.hpp"
@@ -31,15 +33,6 @@ struct ConvertOptions {
   Format format = Format::text;
 };
 
-iso6976::CombustionRef parse_combustion(const std::string& s) {
-  if (s == "0") return iso6976::CombustionRef::t0C;
-  if (s == "15") return iso6976::CombustionRef::t15C;
-  if (s == "15.55" || s == "60F") return iso6976::CombustionRef::t15_55C;
-  if (s == "20") return iso6976::CombustionRef::t20C;
-  if (s == "25") return iso6976::CombustionRef::t25C;
-  throw io::InputError("--combustion-ref", s, "use 0, 15, 15.55 (60F), 20 or 25 (degC)");
-}
-
 int run_convert(const ConvertOptions& o) {
   if (o.V.empty() || o.T.empty() || o.p.empty())
     throw io::InputError("--V/--T/--p", o.V + "/" + o.T + "/" + o.p, "give the metered volume and the line temperature and pressure");
@@ -58,7 +51,7 @@ int run_convert(const ConvertOptions& o) {
 
   ConverterSetup setup;
   setup.base = base;
-  setup.combustion = o.combustion.empty() ? default_combustion_for(base.T_K) : parse_combustion(o.combustion);
+  setup.combustion = o.combustion.empty() ? default_combustion_for(base.T_K) : io::parse_combustion_ref(o.combustion, "--combustion-ref");
   setup.eval = o.method.eval_options(false);
   std::optional<io::ParsedComposition> comp;
   if (o.gas.given()) {
@@ -111,6 +104,7 @@ int run_convert(const ConvertOptions& o) {
     j["volume_unit"] = o.volume_unit;
     if (!std::isnan(c.energy_MJ)) { j["energy"] = E_out; j["energy_unit"] = o.energy_unit; j["Hs_MJ_per_m3"] = c.Hs_MJ_per_m3; }
     j["Hs_source"] = hs_note;
+    if (comp) j["Hs_doubtful_rows"] = doubtful_rows_text(iso6976::doubtful_components(comp->x, setup.combustion));
     if (!std::isnan(c.mass_kg)) j["mass_kg"] = c.mass_kg;
     j["status"] = status_text(c.status);
     if (comp) j["composition_provenance"] = comp->provenance();
@@ -151,7 +145,12 @@ int run_convert(const ConvertOptions& o) {
   }
   if (!std::isnan(c.mass_kg)) line("mass", io::format_sig(c.mass_kg, 10) + " kg");
   line("status", status_text(c.status));
-  if (comp) line("gas", comp->provenance());
+  if (comp) {
+    line("gas", comp->provenance());
+    if (!std::isnan(c.energy_MJ))
+      line("Hs data", std::string(data_source_text) + "; rows below medium-high confidence: " +
+                          doubtful_rows_text(iso6976::doubtful_components(comp->x, setup.combustion)));
+  }
   return exit_ok;
 }
 

@@ -20,8 +20,8 @@ void GasOptions::add_to(CLI::App& app, bool required) {
   g->excludes(f);
   app.add_flag("--mol-percent", mol_percent, "Values are mol % instead of mole fractions");
   app.add_flag("--normalise", normalise, "Scale the analysis to sum 1 (the original sum is reported)");
-  app.add_option("--sum-tolerance", sum_tolerance, "Accepted |sum - 1| without normalising (mole fraction)")
-      ->check(CLI::Range(0.0, 0.05));
+  app.add_option("--sum-tolerance", sum_tolerance, "Accepted |sum - 1| without normalising (mole fraction; at most the engine's 1e-4)")
+      ->check(CLI::Range(0.0, default_sum_tolerance));
   if (required) {
     // One of the two must be given; checked when the command runs.
   }

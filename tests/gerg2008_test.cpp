@@ -17,6 +17,7 @@
 #include "io/csv.hpp"
 #include "io/text.hpp"
 #include "methods/gerg2008.hpp"
+#include "support/sample_gases.hpp"
 
 using namespace zcorr;
 using mp = boost::multiprecision::cpp_bin_float_50;
@@ -86,23 +87,7 @@ Fractions<double> pure(Component c) {
   return x;
 }
 
-// A 12-component pipeline gas (fictional analysis, mole fractions summing to 1).
-Fractions<double> pipeline_gas() {
-  Fractions<double> x{};
-  x[index(Component::methane)] = 0.9;
-  x[index(Component::nitrogen)] = 0.02;
-  x[index(Component::carbon_dioxide)] = 0.015;
-  x[index(Component::ethane)] = 0.045;
-  x[index(Component::propane)] = 0.012;
-  x[index(Component::n_butane)] = 0.002;
-  x[index(Component::isobutane)] = 0.002;
-  x[index(Component::n_pentane)] = 0.0008;
-  x[index(Component::isopentane)] = 0.0007;
-  x[index(Component::n_hexane)] = 0.0004;
-  x[index(Component::hydrogen)] = 0.0015;
-  x[index(Component::helium)] = 0.0006;
-  return x;
-}
+Fractions<double> pipeline_gas() { return samples::pipeline_gas_12(); }
 
 double rel(double a, double b) { return std::abs(a / b - 1.0); }
 mp rel(const mp& a, const mp& b) { return abs(a / b - 1); }
@@ -448,6 +433,22 @@ TEST(Gerg2008Status, NoGasRootAndTwoPhase) {
   EXPECT_TRUE(gerg2008::state(p, 150.0, 0.5e6).status.ok());
   EXPECT_EQ(gerg2008::state(p, 150.0, 5e6).status.code, Code::no_gas_root);
   EXPECT_EQ(gerg2008::state(p, 150.0, 1.2e6).status.code, Code::two_phase);
+  // Saturation pressures (from memory, NIST Chemistry WebBook values, about 1 %):
+  // CO2 at 280 K 4.16 MPa, propane at 300 K 1.00 MPa, nitrogen at 110 K 1.47 MPa.
+  // Below them the gas is stable, a little above them the gas root is metastable.
+  const auto co2 = prepared<double>(pure(Component::carbon_dioxide));
+  EXPECT_TRUE(gerg2008::state(co2, 280.0, 4.0e6).status.ok());
+  EXPECT_EQ(gerg2008::state(co2, 280.0, 4.3e6).status.code, Code::two_phase);
+  EXPECT_EQ(gerg2008::state(co2, 280.0, 6e6).status.code, Code::no_gas_root);
+  const auto c3 = prepared<double>(pure(Component::propane));
+  EXPECT_TRUE(gerg2008::state(c3, 300.0, 0.95e6).status.ok());
+  EXPECT_EQ(gerg2008::state(c3, 300.0, 1.05e6).status.code, Code::two_phase);
+  const auto n2 = prepared<double>(pure(Component::nitrogen));
+  EXPECT_TRUE(gerg2008::state(n2, 110.0, 1.4e6).status.ok());
+  EXPECT_EQ(gerg2008::state(n2, 110.0, 1.55e6).status.code, Code::two_phase);
+  // Every low-pressure state below the saturation pressure is gas (regression: spurious
+  // loops of the pure-fluid equation inside the dome once made some of them two_phase).
+  for (double P = 0.1e6; P < 1.0e6; P += 0.01e6) EXPECT_TRUE(gerg2008::state(p, 150.0, P).status.ok()) << P;
   // and every such outcome also in 50 digits
   const auto pm = prepared<mp>(pure(Component::methane));
   EXPECT_EQ(gerg2008::state(pm, mp(150), mp(5e6)).status.code, Code::no_gas_root);
@@ -464,4 +465,116 @@ TEST(Gerg2008Status, IterationCapIsReported) {
   SolveOptions zero;
   zero.max_iter = 0;
   EXPECT_FALSE(gerg2008::state(p, 300.0, 10e6, zero).status.ok());
+}
+
+// --- the density solve against a brute-force root scan -----------------------
+
+// Identity check of the solver: for random natural-gas-like compositions (methane
+// >= 0.5, hydrogen up to 0.3) the root returned is the first root of
+// p(delta) = p on a fine scan of the gas branch (before the first point with
+// dp/ddelta <= 0), at 260-340 K and 0.1-12 MPa. The full sweep runs with
+// ZCORR_SLOW_TESTS.
+TEST(Gerg2008Solver, FindsTheFirstGasRootOfAFineScan) {
+  std::uint32_t seed = 12345;
+  auto u = [&] {  // small LCG: reproducible across standard libraries
+    seed = seed * 1664525u + 1013904223u;
+    return static_cast<double>(seed >> 8) / 16777216.0;
+  };
+  const int gases = ZCORR_SLOW_TESTS ? 200 : 6;
+  const int scan = 4000;
+  const double dmax = 4.0;
+  int checked = 0;
+  for (int g = 0; g < gases; ++g) {
+    Fractions<double> x{};
+    const double hi[] = {0, 0.15, 0.15, 0.12, 0.05, 0.02, 0.02, 0.006, 0.006, 0.003, 0.001, 0.0005, 0.0002, 0.0001,
+                         0.3, 0.005, 0.01, 0.0001, 0.01, 0.005, 0.005};
+    double s = 0;
+    for (std::size_t i = 1; i < max_components; ++i) s += (x[i] = hi[i] * u() * (i == 14 && u() < 0.6 ? 0.0 : 1.0));
+    x[0] = 1.0 - s;
+    if (x[0] < 0.5) continue;
+    const auto p = prepared<double>(x);
+    for (double T = 260; T <= 340; T += 20)
+      for (double P = 1e5; P <= 12e6; P += 1.3e6) {
+        const auto r = gerg2008::state(p, T, P);
+        ASSERT_TRUE(r.status.ok()) << "gas " << g << " T " << T << " P " << P;
+        gerg2008::TauCache<double> c;
+        gerg2008::fill_temperature_cache(p, T, c);
+        const double Pr = P / (p.rhor_mol_per_m3 * gerg2008::R<double>() * T);
+        double first = -1;
+        for (int k = 1; k <= scan; ++k) {
+          const double d = dmax * k / scan;
+          const auto a = gerg2008::residual(p, c, d);
+          if (d * (1 + a.d1) - Pr >= 0) { first = d; break; }
+          ASSERT_GT(1 + 2 * a.d1 + a.d2, 0.0) << "gas branch ends before the root, gas " << g;
+        }
+        ASSERT_GT(first, 0.0);
+        const double dr = r.rho_mol_per_m3 / p.rhor_mol_per_m3;
+        EXPECT_LE(dr, first) << g;
+        EXPECT_GT(dr, first - dmax / scan) << g;
+        ++checked;
+      }
+  }
+  EXPECT_GT(checked, 50);
+}
+
+// Same identity check for rich mixtures (CO2 up to 0.6, ethane up to 0.3, propane
+// up to 0.1, hydrogen up to 0.5) at 220-340 K and 0.1-15 MPa, where the states
+// include T < T_r and states past the end of the gas branch: ok must be the first
+// scanned root, no_gas_root must mean the scan meets dp/ddelta <= 0 before any root.
+TEST(Gerg2008Solver, RichMixturesAgreeWithTheScan) {
+  std::uint32_t seed = 777;
+  auto u = [&] {
+    seed = seed * 1664525u + 1013904223u;
+    return static_cast<double>(seed >> 8) / 16777216.0;
+  };
+  const int gases = ZCORR_SLOW_TESTS ? 400 : 8;
+  const int scan = 2000;
+  const double dmax = 4.0;
+  int ok = 0, none = 0;
+  for (int g = 0; g < gases; ++g) {
+    Fractions<double> x{};
+    x[index(Component::carbon_dioxide)] = 0.6 * u();
+    x[index(Component::ethane)] = 0.3 * u();
+    x[index(Component::propane)] = 0.1 * u();
+    x[index(Component::n_butane)] = 0.03 * u();
+    x[index(Component::isobutane)] = 0.03 * u();
+    x[index(Component::nitrogen)] = 0.3 * u();
+    x[index(Component::hydrogen)] = u() < 0.5 ? 0.5 * u() : 0.0;
+    x[index(Component::n_pentane)] = 0.01 * u();
+    x[index(Component::n_hexane)] = 0.003 * u();
+    double s = 0;
+    for (double v : x) s += v;
+    if (s > 0.95) continue;
+    x[index(Component::methane)] = 1.0 - s;
+    const auto p = prepared<double>(x);
+    for (double T = 220; T <= 340; T += 30)
+      for (double P = 1e5; P <= 15e6; P += 1.1e6) {
+        const auto r = gerg2008::state(p, T, P);
+        gerg2008::TauCache<double> c;
+        gerg2008::fill_temperature_cache(p, T, c);
+        const double Pr = P / (p.rhor_mol_per_m3 * gerg2008::R<double>() * T);
+        double first = -1;
+        for (int k = 1; k <= scan; ++k) {
+          const double d = dmax * k / scan;
+          const auto a = gerg2008::residual(p, c, d);
+          if (d * (1 + a.d1) - Pr >= 0) { first = d; break; }
+          if (!(1 + 2 * a.d1 + a.d2 > 0)) break;
+        }
+        if (r.status.ok()) {
+          ++ok;
+          const double dr = r.rho_mol_per_m3 / p.rhor_mol_per_m3;
+          ASSERT_GT(first, 0.0) << "gas " << g << " T " << T << " P " << P;
+          EXPECT_LE(dr, first + 1e-12);
+          EXPECT_GT(dr, first - dmax / scan);
+        } else if (r.status.code == Code::no_gas_root) {
+          ++none;
+          EXPECT_LT(first, 0.0) << "gas " << g << " T " << T << " P " << P;
+        } else {
+          EXPECT_EQ(r.status.code, Code::two_phase) << "gas " << g << " T " << T << " P " << P;
+          EXPECT_GT(first, 0.0);
+        }
+      }
+  }
+  EXPECT_GT(ok, 50);
+  EXPECT_GT(none, 0);  // the sweep does reach past the gas branch
 }

@@ -5,6 +5,7 @@
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
 #include <cmath>
+#include <cstdio>
 #include <cstdlib>
 #include <new>
 #include <limits>
@@ -239,7 +240,9 @@ TEST(Iso6976, DoubleAgreesWithMultiprecision) {
           EXPECT_LT(dev, 1e-14) << "field " << i;
         }
       }
-  RecordProperty("worst_relative_deviation", std::to_string(worst));
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3e", worst);
+  RecordProperty("worst_relative_deviation", buf);
 }
 
 // Bad input: a status, every value NaN, no crash (issue 2, "Bad input").
@@ -413,7 +416,9 @@ TEST(Iso6976, SecondVirialFromSummationFactorsMatchesReferenceEquations) {
       worst = std::max(worst, std::abs(B / B_eos - 1.0));
       EXPECT_NEAR(B, B_eos, 0.025 * std::abs(B_eos) + 0.5) << component_name(index(row.c)) << " at " << Tk << " K";
     }
-  RecordProperty("worst_relative_B_deviation", std::to_string(worst));
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3e", worst);
+  RecordProperty("worst_relative_B_deviation", buf);
 }
 
 // The runtime method `iso6976` (reference conditions only; DEVELOPERS.md contract 2).

@@ -44,6 +44,21 @@ std::map<std::string, double> kind_unit(const RefCase& c) {
   return {{"SI", v}};
 }
 
+// Evaluates a prepared method at the case's `T` and `p` (with units) and
+// returns every quantity it provides, by name.
+std::map<std::string, double> state_quantities(const RefCase& c, const LineMethod& method) {
+  const double T = io::parse_temperature_K(c.input("T"), "T");
+  const double p = io::parse_pressure_Pa(c.input("p"), "p");
+  EvalOptions opt;
+  opt.derived = true;
+  auto out = method.state(T, p, opt);
+  if (!out.status.ok()) throw io::InputError("state", c.input("T") + ", " + c.input("p"), std::string("not computed: ") + code_name(out.status.code));
+  std::map<std::string, double> r;
+  for (std::size_t i = 0; i < out.q.size(); ++i)
+    if (out.has(static_cast<Quantity>(i))) r[std::string(quantity_names[i])] = out.q[i];
+  return r;
+}
+
 // kind = state: `method`, `T`, `p` (with units), `composition`; results are
 // the method's quantities by name (Z, rho_mol_per_L, B_cm3_per_mol, ...).
 std::map<std::string, double> kind_state(const RefCase& c) {
@@ -54,16 +69,30 @@ std::map<std::string, double> kind_state(const RefCase& c) {
   auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));
   auto st = method->prepare(comp.x);
   if (!st.ok()) throw io::InputError("composition", c.input("composition"), std::string("refused by the method: ") + code_name(st.code));
-  const double T = io::parse_temperature_K(c.input("T"), "T");
-  const double p = io::parse_pressure_Pa(c.input("p"), "p");
-  EvalOptions opt;
-  opt.derived = true;
-  auto out = method->state(T, p, opt);
-  if (!out.status.ok()) throw io::InputError("state", c.input("T") + ", " + c.input("p"), std::string("not computed: ") + code_name(out.status.code));
-  std::map<std::string, double> r;
-  for (std::size_t i = 0; i < out.q.size(); ++i)
-    if (out.has(static_cast<Quantity>(i))) r[std::string(quantity_names[i])] = out.q[i];
-  return r;
+  return state_quantities(c, *method);
+}
+
+// kind = gross: `method` (sgerg88 | gross1 | gross2), gross inputs `Hs`
+// (MJ/m3), `d`, `x_CO2`, `x_H2`, `x_N2` (as the method needs), `T`, `p`
+// (with units); results as for kind = state.
+std::map<std::string, double> kind_gross(const RefCase& c) {
+  auto m = method_from_name(c.input("method"));
+  if (!m || (*m != MethodId::sgerg88 && *m != MethodId::gross1 && *m != MethodId::gross2))
+    throw io::InputError("method", c.input("method"), "use sgerg88, gross1 or gross2");
+  auto method = make_line_method(*m);
+  if (!method) throw io::InputError("method", c.input("method"), "this method is not built into this binary");
+  GrossInputs g;
+  auto opt_number = [&](const char* key, double& v) {
+    if (c.has(key)) v = io::parse_number(c.input(key), key);
+  };
+  opt_number("Hs", g.Hs_MJ_per_m3);
+  opt_number("d", g.d);
+  opt_number("x_CO2", g.x_CO2);
+  opt_number("x_H2", g.x_H2);
+  opt_number("x_N2", g.x_N2);
+  auto st = method->prepare_gross(g);
+  if (!st.ok()) throw io::InputError("gross inputs", c.id, std::string("refused by the method: ") + code_name(st.code));
+  return state_quantities(c, *method);
 }
 
 // kind = correction: line `p_f`, `T_f`, `Z_f`, base `p_b`, `T_b`, `Z_b`.
@@ -104,6 +133,7 @@ const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
   static const std::vector<std::pair<std::string_view, KindFn>> table{
       {"unit", kind_unit},
       {"state", kind_state},
+      {"gross", kind_gross},
       {"correction", kind_correction},
       {"iso6976", kind_iso6976},
   };

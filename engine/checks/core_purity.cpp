@@ -10,8 +10,11 @@
 #include "core/status.hpp"
 #include "core/units.hpp"
 #include "data/iso6976_data.hpp"
+#include "data/sgerg88_data.hpp"
+#include "methods/aga8_gross.hpp"
 #include "methods/iso6976.hpp"
 #include "methods/gerg2008.hpp"
+#include "methods/sgerg88.hpp"
 
 namespace zcorr {
 
@@ -27,6 +30,20 @@ template ZResult<double> gerg2008::z_factor<double>(const gerg2008::Prepared<dou
                                                     const SolveOptions&) noexcept;
 template gerg2008::Residual<double> gerg2008::alphar<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
 template double gerg2008::pressure_Pa<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
+template sgerg88::Mixture<double> sgerg88::prepare<double>(const sgerg88::GrossInput<double>&,
+                                                           const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::State<double> sgerg88::z_factor<double>(const sgerg88::Mixture<double>&, const double&, const double&,
+                                                          const SolveOptions&) noexcept;
+template sgerg88::Virial<double> sgerg88::virial<double>(const sgerg88::Mixture<double>&, const double&) noexcept;
+template sgerg88::GrossBack<double> sgerg88::gross_of<double>(const sgerg88::Mixture<double>&) noexcept;
+template sgerg88::Mixture<double> aga8_gross::prepare_method1<double>(const aga8_gross::Method1Input<double>&,
+                                                                      const aga8_gross::ReferenceConditions&,
+                                                                      const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::Mixture<double> aga8_gross::prepare_method2<double>(const aga8_gross::Method2Input<double>&,
+                                                                      const aga8_gross::ReferenceConditions&,
+                                                                      const sgerg88::CharacterizationOptions&) noexcept;
+template sgerg88::State<double> aga8_gross::z_factor<double>(const sgerg88::Mixture<double>&, const double&,
+                                                             const double&, const SolveOptions&) noexcept;
 
 
 namespace iso6976 {

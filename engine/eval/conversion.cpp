@@ -6,18 +6,13 @@
 namespace zcorr {
 namespace {
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
-// ISO 6976:2016 gas constant, used only for the p M / (Z R T) fallback density.
-constexpr double R_iso6976 = 8.3144621;
+// ISO 6976 gas constant, used only for the p M / (Z R T) fallback density.
+constexpr double R_iso6976 = iso6976::data::R_J_per_mol_K;
 }  // namespace
 
 std::optional<iso6976::MeteringRef> metering_ref_for(double T_K) noexcept {
-  struct Pair { double T; iso6976::MeteringRef r; };
-  constexpr Pair table[] = {{273.15, iso6976::MeteringRef::t0C},
-                            {288.15, iso6976::MeteringRef::t15C},
-                            {(60.0 + 459.67) / 1.8, iso6976::MeteringRef::t15_55C},
-                            {293.15, iso6976::MeteringRef::t20C}};
-  for (const auto& p : table)
-    if (std::abs(T_K - p.T) < 0.005) return p.r;
+  for (auto r : iso6976::all_metering_refs)
+    if (std::abs(T_K - iso6976::temperature_K(r)) < 0.005) return r;
   return std::nullopt;
 }
 

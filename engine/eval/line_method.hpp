@@ -87,6 +87,12 @@ class LineMethod {
   virtual Status prepare(const Fractions<double>& x) noexcept = 0;
   // For gross-characterization methods; others return invalid_input.
   virtual Status prepare_gross(const GrossInputs&) noexcept { return make_status(Code::invalid_input); }
+  // Gross-characterization methods: the gross inputs in use after the last
+  // successful prepare() or prepare_gross() (NaN fields when not applicable),
+  // and a note naming how prepare(composition) reduced the analysis to them
+  // (e.g. the ISO 6976 reference conditions). Empty for other methods.
+  [[nodiscard]] virtual GrossInputs gross_inputs() const noexcept { return {}; }
+  [[nodiscard]] virtual std::string_view reduction_note() const noexcept { return {}; }
   // Evaluates a state after prepare(). Does not allocate, does not throw.
   [[nodiscard]] virtual StateOutput state(double T_K, double p_Pa, const EvalOptions& opt) const noexcept = 0;
 };

@@ -152,7 +152,7 @@ struct Properties {
   S dpdrho_T{};           // (dp/drho)_T, J/mol
   S dpdT_rho{};           // (dp/dT)_rho, Pa/K
   Status status{};
-  int iterations = 0;
+  int iterations = 0;  // evaluations of alpha_r in the density solve (scan points included)
 };
 
 // ---------------------------------------------------------------------------
@@ -590,6 +590,108 @@ RootResult solve_delta(const Prepared<S>& p, const TauCache<S>& c, const S& P, S
   return res;
 }
 
+struct PhaseScan {
+  bool gas = false;            // a root on the gas branch (below the first point with dp/drho <= 0)
+  bool liquid_stable = false;  // a liquid-branch root with lower Gibbs energy exists
+  bool capped = false;
+  int iterations = 0;
+};
+
+template <class S>
+struct PhaseScanResult : PhaseScan {
+  S delta_gas{};
+};
+
+// Scan step in reduced density and the refinement of a bracketed root.
+inline constexpr double scan_step = 0.02;
+inline constexpr int scan_points = static_cast<int>(delta_search_max / scan_step);
+
+// Root of f on [a, b] where f is increasing (f(a) < 0 <= f(b)): Newton kept
+// inside the bracket, bisection otherwise.
+template <class S>
+bool refine_root(const Prepared<S>& p, const TauCache<S>& c, const S& P, S a, S b, S& delta, const SolveOptions& opt,
+                 int& iterations) noexcept {
+  delta = (a + b) / S(2);
+  const int max_iter = opt.max_iter > 0 ? opt.max_iter : 1;
+  for (int it = 0; it < max_iter; ++it) {
+    ++iterations;
+    const auto r = residual(p, c, delta);
+    const S f = delta * (S(1) + r.d1) - P;
+    const S fp = S(1) + S(2) * r.d1 + r.d2;
+    if (f < S(0)) a = delta;
+    else b = delta;
+    S next = fp > S(0) ? S(delta - f / fp) : S((a + b) / S(2));
+    if (!(next > a && next < b)) next = (a + b) / S(2);
+    if (num::abs_(S(next - delta)) <= S(opt.rel_tol) * next || b - a <= S(opt.rel_tol) * b) {
+      delta = next;
+      return true;
+    }
+    delta = next;
+  }
+  return false;
+}
+
+// Below the reducing temperature the pure-fluid equations have loops (some of
+// them spurious) inside the two-phase region. The gas root is taken on the gas
+// branch only (below the first point where dp/drho <= 0), the liquid root on the
+// liquid branch only (above the last such point below delta_search_max), and
+// the phase of lower Gibbs energy (g/RT = ln delta + alpha_r + Z + terms equal for
+// both) is the stable one. Scan resolution: scan_step in delta.
+template <class S>
+PhaseScanResult<S> scan_phases(const Prepared<S>& p, const TauCache<S>& c, const S& P, const SolveOptions& opt) noexcept {
+  PhaseScanResult<S> out;
+  const S h(scan_step);
+  S prev(0);
+  bool bracket = false;
+  for (int k = 1; k <= scan_points; ++k) {
+    const S d = h * S(k);
+    ++out.iterations;
+    const auto r = residual(p, c, d);
+    const S f = d * (S(1) + r.d1) - P;
+    const S fp = S(1) + S(2) * r.d1 + r.d2;
+    if (f >= S(0)) { bracket = true; break; }  // the gas root lies in (prev, d]
+    if (!(fp > S(0))) break;                     // end of the gas branch below p: no gas root
+    prev = d;
+    if (k == scan_points) break;
+  }
+  if (!bracket) return out;
+  S dg;
+  if (!refine_root(p, c, P, prev, S(prev + h), dg, opt, out.iterations)) {
+    out.capped = true;
+    out.delta_gas = dg;
+    return out;
+  }
+  out.gas = true;
+  out.delta_gas = dg;
+  // Liquid branch: scan down from delta_search_max while dp/drho > 0 and f > 0.
+  S upper(delta_search_max);
+  bool liquid_bracket = false;
+  S lower(0);
+  for (int k = 0; k < scan_points; ++k) {
+    const S d = S(delta_search_max) - h * S(k);
+    if (d <= dg + h) break;
+    ++out.iterations;
+    const auto r = residual(p, c, d);
+    const S f = d * (S(1) + r.d1) - P;
+    const S fp = S(1) + S(2) * r.d1 + r.d2;
+    if (!(fp > S(0))) break;               // liquid branch ends above p: no liquid root
+    if (f < S(0)) {
+      if (k == 0) break;                   // root beyond the search range
+      liquid_bracket = true;
+      lower = d;
+      break;
+    }
+    upper = d;
+  }
+  if (!liquid_bracket) return out;
+  S dl;
+  if (!refine_root(p, c, P, lower, upper, dl, opt, out.iterations)) return out;
+  const auto rg = residual(p, c, dg), rl = residual(p, c, dl);
+  const S g_gas = num::log_(dg) + rg.a + rg.d1, g_liq = num::log_(dl) + rl.a + rl.d1;
+  out.liquid_stable = g_liq < g_gas;
+  return out;
+}
+
 }  // namespace detail
 
 // Z, density and (optionally) the derived properties at (T, p). Finds the
@@ -624,66 +726,36 @@ template <class S>
   S delta(0);
   Residual<S> r;
   if (P > S(0)) {
-    // Start from the virial equation truncated after B (ideal gas if that has no root).
-    const auto v = reduced_virial(p, c);
-    const S disc = S(1) + S(4) * v.B * P;
-    delta = disc > S(0) ? S(S(2) * P / (S(1) + num::sqrt_(disc))) : P;
-    if (!(delta > S(0)) || delta >= S(delta_search_max)) delta = P < S(delta_search_max) ? P : S(delta_search_max / 2);
-    auto rr = detail::solve_delta(p, c, P, S(0), S(delta_search_max), delta, opt, r);
-    out.iterations = rr.iterations;
-    if (rr.capped) {
-      out.status.code = Code::no_convergence;
-      out.status.flags |= flag::iteration_cap;
-    } else if (!rr.found) {
-      out.status.code = Code::no_gas_root;
-      return out;
+    // Fast path (T >= T_r): safeguarded Newton from the virial equation truncated
+    // after B (ideal gas when that has no root). At these temperatures the root
+    // found is the first root of the gas branch (checked against a fine scan for
+    // random natural-gas-like and CO2/ethane/hydrogen-rich mixtures in
+    // tests/gerg2008_test.cpp, Gerg2008Solver).
+    detail::RootResult rr;
+    if (T_K >= p.Tr_K) {
+      const auto v = reduced_virial(p, c);
+      const S disc = S(1) + S(4) * v.B * P;
+      delta = disc > S(0) ? S(S(2) * P / (S(1) + num::sqrt_(disc))) : P;
+      if (!(delta > S(0)) || delta >= S(delta_search_max)) delta = P < S(delta_search_max) ? P : S(delta_search_max / 2);
+      rr = detail::solve_delta(p, c, P, S(0), S(delta_search_max), delta, opt, r);
+      out.iterations = rr.iterations;
     }
-    // Below the reducing temperature the equation may have a liquid-like root
-    // (or a loop before the one found); check that the root found is the
-    // stable, gas-branch one.
-    if (out.status.ok() && T_K < p.Tr_K) {
-      const S ln_g = num::log_(delta) + r.a + (S(1) + r.d1);
-      // 1. the gas branch must rise monotonically up to the root
-      constexpr int probes = 6;
-      S first_bad(-1);
-      for (int k = 1; k < probes; ++k) {
-        const S dk = delta * S(k) / S(probes);
-        const auto rk = residual(p, c, dk);
-        if (!(S(1) + S(2) * rk.d1 + rk.d2 > S(0))) { first_bad = dk; break; }
-      }
-      if (first_bad > S(0)) {
-        // the root found lies beyond a loop: it is liquid-like
+    if (!rr.found) {
+      // Slow path (below T_r, or the fast path failed): scan the gas and liquid branches.
+      const auto sc = detail::scan_phases(p, c, P, opt);
+      out.iterations += sc.iterations;
+      if (sc.capped) {
+        out.status.code = Code::no_convergence;
+        out.status.flags |= flag::iteration_cap;
+        delta = sc.delta_gas > S(0) ? sc.delta_gas : delta;
+      } else if (!sc.gas) {
         out.status.code = Code::no_gas_root;
         return out;
-      }
-      // 2. a denser root of lower Gibbs energy makes the gas state metastable
-      S dl(delta_search_max * 0.7);
-      Residual<S> rl;
-      S lo = delta, hi(delta_search_max);
-      bool liquid = false;
-      for (int it = 0; it < opt.max_iter; ++it) {
-        rl = residual(p, c, dl);
-        const S f = dl * (S(1) + rl.d1) - P;
-        const S fp = S(1) + S(2) * rl.d1 + rl.d2;
-        if (fp > S(0) && f > S(0)) hi = dl;
-        else lo = dl;  // left of the liquid root (below it or in the loop)
-        S next = fp > S(0) ? S(dl - f / fp) : S((lo + hi) / S(2));
-        if (!(next > lo && next < hi)) next = (lo + hi) / S(2);
-        if (num::abs_(S(next - dl)) <= S(opt.rel_tol) * next) {
-          dl = next;
-          rl = residual(p, c, dl);
-          liquid = S(1) + S(2) * rl.d1 + rl.d2 > S(0) && num::abs_(S(dl * (S(1) + rl.d1) - P)) <= S(1e-8) * P;
-          break;
-        }
-        if (hi - lo <= S(opt.rel_tol) * hi) break;
-        dl = next;
-      }
-      if (liquid && dl > delta * S(1.01)) {
-        const S ln_l = num::log_(dl) + rl.a + (S(1) + rl.d1);
-        if (ln_l < ln_g) {
-          out.status.code = Code::two_phase;
-          return out;
-        }
+      } else if (sc.liquid_stable) {
+        out.status.code = Code::two_phase;
+        return out;
+      } else {
+        delta = sc.delta_gas;
       }
     }
   }
@@ -702,6 +774,8 @@ template <class S>
   }
   // Z = p / (rho R T) from the solved density (equals 1 + delta alpha_r_delta at the root).
   out.Z = P > S(0) ? S(P / delta) : S(1);
+  if (out.status.ok() && (!num::isfinite_(out.Z) || !(out.Z > S(0)) || !num::isfinite_(rho)))
+    out.status.code = Code::no_convergence;  // far outside every range the equation can overflow
   return out;
 }
 
