@@ -1,0 +1,217 @@
+// zcorr audit: replays an interval log and lists what is wrong with it, each
+// finding with its interval range, kind, severity and the base volume and
+// energy at stake. Exit 0 nothing found, 1 findings, 2 the log cannot be read
+// (missing, corrupt, not a zcorr log, newer schema).
+#include <cmath>
+#include <cstdio>
+#include <iostream>
+#include <memory>
+#include <sstream>
+
+#include <nlohmann/json.hpp>
+
+#include "audit/audit.hpp"
+#include "commands.hpp"
+#include "common.hpp"
+#include "io/input_error.hpp"
+#include "io/units_parse.hpp"
+#include "record/quantities.hpp"
+#include "record/timeutil.hpp"
+
+namespace zcorr::cli {
+namespace {
+
+struct AuditCliOptions {
+  std::string db, point, from, to, contract;
+  std::string wi_method, wi_base_T, wi_base_p;
+  std::int64_t wi_analysis = 0;
+  double max_age_h = 840;
+  double tolerance_ppm = audit::recalculation_bar_ppm;
+  Format format = Format::text;
+};
+
+std::string t_or_empty(std::int64_t t) { return t ? record::format_time_utc(t) : std::string(); }
+
+std::string fixed(double v, int digits) {
+  if (!std::isfinite(v)) return v > 0 ? "inf" : (v < 0 ? "-inf" : "");
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", digits, v);
+  return buf;
+}
+
+std::string csv_field(const std::string& s) {
+  if (s.find_first_of(",\"\n") == std::string::npos) return s;
+  std::string o = "\"";
+  for (char c : s) {
+    if (c == '"') o += '"';
+    o += c;
+  }
+  return o + '"';
+}
+
+double json_num(double v) { return std::isfinite(v) ? v : (v > 0 ? 1e300 : -1e300); }
+
+int run_audit_cmd(const AuditCliOptions& o) {
+  using namespace zcorr::audit;
+  AuditOptions ao;
+  if (!o.point.empty()) ao.selection.point = o.point;
+  if (!o.from.empty()) {
+    const auto t = record::parse_time_utc(o.from);
+    if (!t) throw io::InputError("--from", o.from, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
+    ao.selection.from_utc_s = *t;
+  }
+  if (!o.to.empty()) {
+    const auto t = record::parse_time_utc(o.to);
+    if (!t) throw io::InputError("--to", o.to, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
+    ao.selection.to_utc_s = *t;
+  }
+  if (!o.contract.empty()) ao.contract = load_contract(o.contract);
+  if (!(o.max_age_h > 0)) throw io::InputError("--max-analysis-age", std::to_string(o.max_age_h), "hours > 0");
+  if (!(o.tolerance_ppm >= 0)) throw io::InputError("--tolerance-ppm", std::to_string(o.tolerance_ppm), "ppm >= 0");
+  ao.max_analysis_age_h = o.max_age_h;
+  ao.tolerance_ppm = o.tolerance_ppm;
+
+  if (!o.wi_method.empty()) ao.what_if.method = o.wi_method;
+  if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
+  if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
+  if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
+
+  AuditResult r;
+  try {
+    record::Log log(o.db, {record::OpenMode::read_only});
+    r = run_audit(log, ao, built_in_methods());
+  } catch (const record::LogError& e) {
+    std::cerr << "zcorr audit: " << e.what() << '\n';
+    return exit_unusable;
+  }
+  const ReplayTotals& t = r.replay;
+  const bool clean = r.findings.empty();
+
+  if (o.format == Format::json) {
+    nlohmann::json j;
+    j["db"] = o.db;
+    j["log_id"] = r.log_id;
+    j["records"] = r.records;
+    j["head_hash"] = r.head_hash_hex;
+    j["V_b_m3"] = record::decimal(r.V_b_um3, 6);
+    j["E_MJ"] = record::decimal(r.E_J, 6);
+    j["replay"] = {{"intervals", t.intervals},
+                   {"replayed", t.replayed},
+                   {"not_replayed", t.not_replayed},
+                   {"over_bar", t.over_bar},
+                   {"bar_ppm", recalculation_bar_ppm},
+                   {"V_b_m3_logged", record::decimal(t.V_b_um3_logged, 6)},
+                   {"V_b_m3_replayed", record::decimal(t.V_b_um3_replayed, 6)},
+                   {"E_MJ_logged", record::decimal(t.E_J_logged, 6)},
+                   {"E_MJ_replayed", record::decimal(t.E_J_replayed, 6)},
+                   {"max_dZ_f_ppm", json_num(t.max_dZ_f_ppm)},
+                   {"max_dZ_b_ppm", json_num(t.max_dZ_b_ppm)},
+                   {"max_dC_ppm", json_num(t.max_dC_ppm)},
+                   {"max_dV_b_ppm", json_num(t.max_dV_b_ppm)},
+                   {"max_dE_ppm", json_num(t.max_dE_ppm)}};
+    if (r.what_if_run)
+      j["what_if"] = {{"intervals", r.what_if.intervals},
+                      {"recomputed", r.what_if.replayed},
+                      {"V_b_m3_logged", record::decimal(r.what_if.V_b_um3_logged, 6)},
+                      {"V_b_m3_what_if", record::decimal(r.what_if.V_b_um3_replayed, 6)},
+                      {"E_MJ_logged", record::decimal(r.what_if.E_J_logged, 6)},
+                      {"E_MJ_what_if", record::decimal(r.what_if.E_J_replayed, 6)}};
+    j["findings"] = nlohmann::json::array();
+    for (const auto& f : r.findings)
+      j["findings"].push_back({{"kind", kind_name(f.kind)},
+                               {"severity", severity_name(f.severity)},
+                               {"point", f.point},
+                               {"from", t_or_empty(f.from_utc_s)},
+                               {"to", t_or_empty(f.to_utc_s)},
+                               {"from_utc_s", f.from_utc_s},
+                               {"to_utc_s", f.to_utc_s},
+                               {"intervals", f.intervals},
+                               {"first_seq", f.first_seq},
+                               {"last_seq", f.last_seq},
+                               {"V_b_m3", f.V_b_m3},
+                               {"E_MJ", f.E_MJ},
+                               {"worst_ppm", json_num(f.worst_ppm)},
+                               {"detail", f.detail}});
+    j["intervals_over_bar"] = nlohmann::json::array();
+    for (const auto& [iv, rp] : r.over_bar)
+      j["intervals_over_bar"].push_back({{"seq", iv.seq}, {"point", iv.point}, {"start", record::format_time_utc(iv.start_utc_s)},
+                                         {"Z_f_logged", json_num(iv.Z_f)}, {"Z_f_replayed", json_num(rp.Z_f)},
+                                         {"V_b_m3_logged", iv.V_b_m3}, {"V_b_m3_replayed", rp.V_b_m3},
+                                         {"worst_ppm", json_num(rp.worst_ppm())}});
+    std::cout << j.dump(2) << '\n';
+  } else if (o.format == Format::csv) {
+    std::cout << "kind,severity,point,from,to,intervals,first_seq,last_seq,V_b_m3,E_MJ,worst_ppm,detail\n";
+    for (const auto& f : r.findings)
+      std::cout << kind_name(f.kind) << ',' << severity_name(f.severity) << ',' << csv_field(f.point) << ','
+                << t_or_empty(f.from_utc_s) << ',' << t_or_empty(f.to_utc_s) << ',' << f.intervals << ',' << f.first_seq << ','
+                << f.last_seq << ',' << fixed(f.V_b_m3, 6) << ',' << fixed(f.E_MJ, 6) << ',' << fixed(f.worst_ppm, 3) << ','
+                << csv_field(f.detail) << '\n';
+  } else {
+    std::cout << "log        " << o.db << " (id " << r.log_id << "), " << r.records << " chained records, head " << r.head_hash_hex
+              << '\n'
+              << "intervals  " << t.intervals << " (" << t.replayed << " recomputed, " << t.not_replayed << " not)\n"
+              << "base vol.  logged " << record::decimal(t.V_b_um3_logged, 6) << " m3, recomputed "
+              << record::decimal(t.V_b_um3_replayed, 6) << " m3\n"
+              << "energy     logged " << record::decimal(t.E_J_logged, 6) << " MJ, recomputed " << record::decimal(t.E_J_replayed, 6)
+              << " MJ\n"
+              << "largest    dZ_f " << fixed(t.max_dZ_f_ppm, 3) << " ppm, dZ_b " << fixed(t.max_dZ_b_ppm, 3) << " ppm, dC "
+              << fixed(t.max_dC_ppm, 3) << " ppm, dV_b " << fixed(t.max_dV_b_ppm, 3) << " ppm, dE " << fixed(t.max_dE_ppm, 3)
+              << " ppm\n"
+              << "bar        " << t.over_bar << " interval(s) miss the " << recalculation_bar_ppm << " ppm recalculation bar\n";
+    for (const auto& [iv, rp] : r.over_bar)
+      std::cout << "  seq " << iv.seq << ' ' << iv.point << ' ' << record::format_time_utc(iv.start_utc_s) << "  Z_f "
+                << fixed(iv.Z_f, 9) << " -> " << fixed(rp.Z_f, 9) << ", V_b " << fixed(iv.V_b_m3, 6) << " -> " << fixed(rp.V_b_m3, 6)
+                << " m3 (" << fixed(rp.worst_ppm(), 1) << " ppm)\n";
+    if (r.over_bar_total > static_cast<std::int64_t>(r.over_bar.size()))
+      std::cout << "  ... " << (r.over_bar_total - static_cast<std::int64_t>(r.over_bar.size())) << " more\n";
+    if (r.what_if_run)
+      std::cout << "what-if    " << r.what_if.replayed << " of " << r.what_if.intervals << " intervals recomputed: base volume "
+                << record::decimal(r.what_if.V_b_um3_logged, 6) << " m3 logged, " << record::decimal(r.what_if.V_b_um3_replayed, 6)
+                << " m3 what-if (" << record::decimal(r.what_if.V_b_um3_replayed - r.what_if.V_b_um3_logged, 6) << "); energy "
+                << record::decimal(r.what_if.E_J_logged, 6) << " MJ logged, " << record::decimal(r.what_if.E_J_replayed, 6)
+                << " MJ what-if (" << record::decimal(r.what_if.E_J_replayed - r.what_if.E_J_logged, 6) << ")\n";
+    if (clean) {
+      std::cout << "result     nothing found\n";
+    } else {
+      std::cout << "result     " << r.findings.size() << " finding(s)\n";
+      for (const auto& f : r.findings) {
+        std::cout << "  " << kind_name(f.kind) << " [" << severity_name(f.severity) << "] " << (f.point.empty() ? "-" : f.point) << ' '
+                  << t_or_empty(f.from_utc_s) << " .. " << t_or_empty(f.to_utc_s) << ", " << f.intervals << " interval(s), seq "
+                  << f.first_seq << ".." << f.last_seq << ", V_b " << fixed(f.V_b_m3, 6) << " m3, E " << fixed(f.E_MJ, 6) << " MJ";
+        if (f.kind == Kind::calc_difference) std::cout << ", worst " << fixed(f.worst_ppm, 1) << " ppm";
+        std::cout << "\n      " << f.detail << '\n';
+      }
+    }
+  }
+  return clean ? exit_ok : exit_partial;
+}
+
+}  // namespace
+
+void setup_audit(CLI::App& app, int& exit_code) {
+  auto opt = std::make_shared<AuditCliOptions>();
+  auto* sub = app.add_subcommand("audit", "Recompute an interval log and list what is wrong with it, with the volume and energy at stake");
+  sub->add_option("--db", opt->db, "Interval log file")->required();
+  sub->add_option("--point", opt->point, "Only this measurement point");
+  sub->add_option("--from", opt->from, "Only intervals ending after this UTC time (2026-03-02T06:00:00Z)");
+  sub->add_option("--to", opt->to, "Only intervals starting before this UTC time");
+  sub->add_option("--contract", opt->contract,
+                  "Contract file: key = value lines point, method, base_T, base_p, tolerance_ppm (see --help footer)");
+  sub->add_option("--max-analysis-age", opt->max_age_h, "Largest allowed age of the gas analysis in force, hours")
+      ->capture_default_str();
+  sub->add_option("--tolerance-ppm", opt->tolerance_ppm, "Allowed recalculation difference, ppm (API 21.1 bar: 50)")
+      ->capture_default_str();
+  sub->add_option("--what-if-method", opt->wi_method, "What-if: recompute with this line method (totals side by side)");
+  sub->add_option("--what-if-base-T", opt->wi_base_T, "What-if: base temperature, e.g. \"60 degF\"");
+  sub->add_option("--what-if-base-p", opt->wi_base_p, "What-if: base pressure, absolute, e.g. \"14.73 psia\"");
+  sub->add_option("--what-if-analysis", opt->wi_analysis, "What-if: use this gas_analysis record (seq) for every interval");
+  add_format_option(*sub, opt->format);
+  sub->footer(
+      "\nFinding kinds: broken_chain, totals_mismatch, gap, overlap, duplicate, stale_analysis, contract_mismatch,\n"
+      "outside_method_range, calc_difference, config_without_event, not_replayed.\n"
+      "Contract file example:\n  point = ST-1\n  method = gerg2008\n  base_T = 15 degC\n  base_p = 101.325 kPa\n\n"
+      "Exit status: 0 nothing found, 1 findings, 2 the log cannot be read.\n\nExample:\n  zcorr audit --db station.db --contract contract.txt\n");
+  sub->callback([opt, &exit_code] { exit_code = guarded("audit", [&] { return run_audit_cmd(*opt); }); });
+}
+
+}  // namespace zcorr::cli

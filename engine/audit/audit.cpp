@@ -1,0 +1,446 @@
+#include "audit/audit.hpp"
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <fstream>
+#include <set>
+#include <sstream>
+#include <thread>
+
+#include "io/input_error.hpp"
+#include "io/units_parse.hpp"
+#include "record/sql.hpp"
+#include "record/timeutil.hpp"
+#include "record/verify.hpp"
+
+namespace zcorr::audit {
+
+std::string_view kind_name(Kind k) noexcept {
+  switch (k) {
+    case Kind::broken_chain: return "broken_chain";
+    case Kind::totals_mismatch: return "totals_mismatch";
+    case Kind::gap: return "gap";
+    case Kind::overlap: return "overlap";
+    case Kind::duplicate: return "duplicate";
+    case Kind::stale_analysis: return "stale_analysis";
+    case Kind::contract_mismatch: return "contract_mismatch";
+    case Kind::outside_method_range: return "outside_method_range";
+    case Kind::calc_difference: return "calc_difference";
+    case Kind::config_without_event: return "config_without_event";
+    case Kind::not_replayed: return "not_replayed";
+  }
+  return "?";
+}
+
+std::string_view severity_name(Severity s) noexcept {
+  switch (s) {
+    case Severity::info: return "info";
+    case Severity::warning: return "warning";
+    case Severity::critical: return "critical";
+  }
+  return "?";
+}
+
+namespace {
+
+std::string trim(std::string_view s) {
+  const auto b = s.find_first_not_of(" \t\r");
+  if (b == std::string_view::npos) return {};
+  const auto e = s.find_last_not_of(" \t\r");
+  return std::string(s.substr(b, e - b + 1));
+}
+
+bool differs(double a, double b, double tol_ppm) { return std::fabs(a - b) > std::fabs(b) * tol_ppm * 1e-6; }
+
+std::string num(double v) {
+  std::ostringstream s;
+  s.precision(10);
+  s << v;
+  return s.str();
+}
+
+// Consecutive intervals of one point with the same kind and cause, as one finding.
+class Runs {
+ public:
+  explicit Runs(std::vector<AuditFinding>& out) : out_(out) {}
+  void add(Kind k, Severity sev, const std::string& key, const LoggedInterval& iv, double V_b, double E, double ppm,
+           const std::string& detail) {
+    Open& o = open_[static_cast<std::size_t>(k)];
+    if (o.active && (o.key != key || o.f.point != iv.point || o.f.to_utc_s != iv.start_utc_s)) close(o);
+    if (!o.active) {
+      o.active = true;
+      o.key = key;
+      o.f = AuditFinding{};
+      o.f.kind = k;
+      o.f.severity = sev;
+      o.f.point = iv.point;
+      o.f.from_utc_s = iv.start_utc_s;
+      o.f.first_seq = iv.seq;
+      o.f.detail = detail;
+    }
+    o.f.to_utc_s = iv.end_utc_s;
+    o.f.last_seq = iv.seq;
+    ++o.f.intervals;
+    o.f.V_b_m3 += V_b;
+    o.f.E_MJ += E;
+    if (std::fabs(ppm) > std::fabs(o.f.worst_ppm)) o.f.worst_ppm = ppm;
+    if (sev > o.f.severity) o.f.severity = sev;
+  }
+  void close_all() {
+    for (auto& o : open_) close(o);
+  }
+
+ private:
+  struct Open {
+    bool active = false;
+    std::string key;
+    AuditFinding f;
+  };
+  void close(Open& o) {
+    if (!o.active) return;
+    out_.push_back(o.f);
+    o.active = false;
+  }
+  std::vector<AuditFinding>& out_;
+  std::array<Open, 11> open_{};
+};
+
+double fin(double v) { return std::isfinite(v) ? v : 0.0; }
+
+}  // namespace
+
+Contract parse_contract(std::string_view text, std::string_view source) {
+  Contract c;
+  std::istringstream in{std::string(text)};
+  std::string line;
+  int n = 0;
+  while (std::getline(in, line)) {
+    ++n;
+    if (const auto h = line.find('#'); h != std::string::npos) line.erase(h);
+    const std::string t = trim(line);
+    if (t.empty()) continue;
+    const auto eq = t.find('=');
+    const std::string where = std::string(source) + ":" + std::to_string(n);
+    if (eq == std::string::npos) throw io::InputError(where, t, "expected key = value");
+    const std::string key = trim(t.substr(0, eq)), value = trim(t.substr(eq + 1));
+    const std::string field = where + " " + key;
+    if (key == "point") c.point = value;
+    else if (key == "method") c.method = value;
+    else if (key == "base_T") c.base_T_K = io::parse_temperature_K(value, field);
+    else if (key == "base_p") c.base_p_Pa = io::parse_pressure_Pa(value, field);
+    else if (key == "tolerance_ppm") {
+      char* end = nullptr;
+      const double v = std::strtod(value.c_str(), &end);
+      if (end == value.c_str() || *end != '\0' || !(v >= 0) || !std::isfinite(v))
+        throw io::InputError(field, value, "a number of ppm >= 0");
+      c.tolerance_ppm = v;
+    } else {
+      throw io::InputError(where, key, "known keys: point, method, base_T, base_p, tolerance_ppm");
+    }
+  }
+  return c;
+}
+
+Contract load_contract(const std::string& path) {
+  std::ifstream f(path, std::ios::binary);
+  if (!f) throw io::InputError("--contract", path, "the file cannot be opened");
+  std::ostringstream s;
+  s << f.rdbuf();
+  return parse_contract(s.str(), path);
+}
+
+AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFactory methods) {
+  using record::Stmt;
+  AuditResult res;
+  sqlite3* db = log.db();
+
+  // 1. The chain and the totals (the verifier), on a second connection in a
+  // second thread while this one replays (both only read the file).
+  record::VerifyResult v;
+  std::exception_ptr verify_error;
+  std::thread verifier;
+  auto verify = [&] {
+    try {
+      record::Log vlog(log.file(), {record::OpenMode::read_only});
+      v = record::verify_log(vlog, opt.max_chain_findings);
+    } catch (...) {
+      verify_error = std::current_exception();
+    }
+  };
+  if (opt.parallel) verifier = std::thread(verify);
+  else verify();
+  struct Join {
+    std::thread& t;
+    ~Join() { if (t.joinable()) t.join(); }
+  } join{verifier};
+
+  // 2. Configurations without their event.
+  {
+    Stmt s(db,
+           "SELECT c.seq, c.point, c.valid_from_utc_s FROM point_config c WHERE NOT EXISTS (SELECT 1 FROM event e WHERE "
+           "e.kind = 'config_change' AND e.ref_seq = c.seq) AND (?1 IS NULL OR c.point = ?1) ORDER BY c.seq");
+    if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
+    while (s.step()) {
+      AuditFinding a;
+      a.kind = Kind::config_without_event;
+      a.severity = Severity::warning;
+      a.point = s.text(1);
+      a.first_seq = a.last_seq = s.i64(0);
+      a.from_utc_s = a.to_utc_s = s.i64(2);
+      Stmt q(db, "SELECT count(*), min(start_utc_s), max(end_utc_s), total(V_b_um3), total(E_J), min(seq), max(seq) FROM interval WHERE config_seq = ?");
+      q.bind(1, a.first_seq);
+      if (q.step() && q.i64(0) > 0) {
+        a.intervals = q.i64(0);
+        a.from_utc_s = q.i64(1);
+        a.to_utc_s = q.i64(2);
+        a.V_b_m3 = q.f64(3) * record::volume_quantum_m3;
+        a.E_MJ = q.f64(4) * 1e-6;
+        a.first_seq = q.i64(5);
+        a.last_seq = q.i64(6);
+      }
+      a.detail = "configuration record seq " + std::to_string(s.i64(0)) + " (in force from " + record::format_time_utc(s.i64(2)) +
+                 ") has no config_change event naming it";
+      res.findings.push_back(a);
+    }
+  }
+
+  // 3. One pass over the intervals: sequence, analysis age, contract, range, replay.
+  std::set<std::int64_t> corrected;
+  {
+    Stmt s(db, "SELECT corrects_seq FROM interval WHERE corrects_seq IS NOT NULL");
+    while (s.step()) corrected.insert(s.i64(0));
+  }
+  const MethodFactory what_if_methods = methods;
+  Replayer rp(log, std::move(methods));
+  std::map<std::int64_t, std::string> contract_diff;  // config seq -> differences ("" = none)
+  auto contract_check = [&](std::int64_t config_seq, const std::string& point) -> const std::string& {
+    auto it = contract_diff.find(config_seq);
+    if (it != contract_diff.end()) return it->second;
+    std::string d;
+    const auto cit = rp.configs().find(config_seq);
+    const Contract& c = *opt.contract;
+    if (cit != rp.configs().end() && (!c.point || *c.point == point)) {
+      const auto& cfg = cit->second;
+      if (c.method && *c.method != cfg.method) d += "method " + cfg.method + " (contract " + *c.method + "); ";
+      if (c.base_T_K && differs(cfg.base_T_K, *c.base_T_K, c.tolerance_ppm))
+        d += "base_T " + num(cfg.base_T_K) + " K (contract " + num(*c.base_T_K) + " K); ";
+      if (c.base_p_Pa && differs(cfg.base_p_Pa, *c.base_p_Pa, c.tolerance_ppm))
+        d += "base_p " + num(cfg.base_p_Pa) + " Pa (contract " + num(*c.base_p_Pa) + " Pa); ";
+    }
+    if (d.size() >= 2) d.resize(d.size() - 2);
+    return contract_diff.emplace(config_seq, d).first->second;
+  };
+
+  Runs runs(res.findings);
+  std::string cur_point;
+  bool have_prev = false;
+  std::int64_t prev_start = 0, prev_end = 0, prev_seq = 0;
+  double prev_rate_Vb = 0, prev_rate_E = 0;  // per second, for a gap estimate
+  const double max_age_s = opt.max_analysis_age_h * 3600.0;
+
+  rp.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
+    const bool is_corrected = corrected.count(iv.seq) != 0;
+    const double Vb = static_cast<double>(iv.V_b_um3) * record::volume_quantum_m3;
+    const double E = static_cast<double>(iv.E_J) * 1e-6;
+    if (!is_corrected) {
+      res.V_b_um3 += iv.V_b_um3;
+      res.E_J += iv.E_J;
+    }
+    if (iv.point != cur_point) {
+      cur_point = iv.point;
+      have_prev = false;
+    }
+    // Sequence of the point's intervals (corrections replace their originals).
+    if (!is_corrected) {
+      if (have_prev && iv.start_utc_s > prev_end) {
+        AuditFinding a;
+        a.kind = Kind::gap;
+        a.severity = Severity::warning;
+        a.point = iv.point;
+        a.from_utc_s = prev_end;
+        a.to_utc_s = iv.start_utc_s;
+        a.first_seq = prev_seq;
+        a.last_seq = iv.seq;
+        const double dt = static_cast<double>(iv.start_utc_s - prev_end);
+        a.V_b_m3 = prev_rate_Vb * dt;
+        a.E_MJ = prev_rate_E * dt;
+        a.detail = "no interval recorded between seq " + std::to_string(prev_seq) + " and seq " + std::to_string(iv.seq) +
+                   " (volume and energy at stake estimated from the rate of the interval before)";
+        res.findings.push_back(a);
+      } else if (have_prev && iv.start_utc_s == prev_start && iv.end_utc_s == prev_end) {
+        AuditFinding a;
+        a.kind = Kind::duplicate;
+        a.severity = Severity::critical;
+        a.point = iv.point;
+        a.from_utc_s = iv.start_utc_s;
+        a.to_utc_s = iv.end_utc_s;
+        a.intervals = 1;
+        a.first_seq = prev_seq;
+        a.last_seq = iv.seq;
+        a.V_b_m3 = Vb;
+        a.E_MJ = E;
+        a.detail = "interval seq " + std::to_string(iv.seq) + " repeats seq " + std::to_string(prev_seq) +
+                   " (its volume is counted twice in any sum over the intervals)";
+        res.findings.push_back(a);
+      } else if (have_prev && iv.start_utc_s < prev_end) {
+        AuditFinding a;
+        a.kind = Kind::overlap;
+        a.severity = Severity::critical;
+        a.point = iv.point;
+        a.from_utc_s = iv.start_utc_s;
+        a.to_utc_s = std::min(prev_end, iv.end_utc_s);
+        a.intervals = 2;
+        a.first_seq = prev_seq;
+        a.last_seq = iv.seq;
+        const double len = static_cast<double>(iv.end_utc_s - iv.start_utc_s);
+        const double share = len > 0 ? static_cast<double>(a.to_utc_s - a.from_utc_s) / len : 1.0;
+        a.V_b_m3 = Vb * share;
+        a.E_MJ = E * share;
+        a.detail = "interval seq " + std::to_string(iv.seq) + " starts before seq " + std::to_string(prev_seq) + " ended";
+        res.findings.push_back(a);
+      }
+      if (iv.flags & record::iflag::gap)
+        runs.add(Kind::gap, Severity::warning, "flag", iv, Vb, E, 0,
+                 "the recorder found missing data (a sample covered more than its interval)");
+      const double len = static_cast<double>(std::max<std::int64_t>(1, iv.end_utc_s - iv.start_utc_s));
+      prev_rate_Vb = Vb / len;
+      prev_rate_E = E / len;
+      if (!have_prev || iv.end_utc_s > prev_end) prev_end = iv.end_utc_s;
+      prev_start = iv.start_utc_s;
+      prev_seq = iv.seq;
+      have_prev = true;
+    }
+
+    // The analysis in force and its age.
+    if (iv.analysis_seq) {
+      const auto ait = rp.analyses().find(iv.analysis_seq);
+      if (ait != rp.analyses().end()) {
+        const std::int64_t taken = ait->second.sampled_utc_s.value_or(ait->second.valid_from_utc_s);
+        const double age = static_cast<double>(iv.start_utc_s - taken);
+        if (age > max_age_s)
+          runs.add(Kind::stale_analysis, Severity::warning, std::to_string(iv.analysis_seq), iv, Vb, E, 0,
+                   "gas analysis seq " + std::to_string(iv.analysis_seq) + " (taken " + record::format_time_utc(taken) +
+                       ") is older than " + num(opt.max_analysis_age_h) + " h");
+      }
+    }
+    // The contract.
+    if (opt.contract) {
+      const std::string& d = contract_check(iv.config_seq, iv.point);
+      if (!d.empty())
+        runs.add(Kind::contract_mismatch, Severity::critical, std::to_string(iv.config_seq), iv, Vb, E, 0,
+                 "configuration seq " + std::to_string(iv.config_seq) + " differs from the contract: " + d);
+    }
+    if (!r.replayed) {
+      runs.add(Kind::not_replayed, Severity::warning, r.why_not, iv, Vb, E, 0, "not recomputed: " + r.why_not);
+      return;
+    }
+    // The method's range at the averaged state.
+    {
+      std::string why;
+      Severity sev = Severity::warning;
+      const bool have_state = std::isfinite(iv.p_avg_Pa) && std::isfinite(iv.T_avg_K);
+      if (have_state && (r.calc_status.rfind("out_of_range", 0) == 0 || r.calc_status.find("range=outside") != std::string::npos ||
+                         (r.flags & record::iflag::extrapolated))) {
+        why = "outside the method's range";
+        sev = Severity::critical;
+      } else if (have_state && (r.flags & record::iflag::expanded_range)) {
+        why = "in the method's expanded range only";
+      }
+      if (!why.empty())
+        runs.add(Kind::outside_method_range, sev, why, iv, Vb, E, 0,
+                 "the averaged state (p " + num(iv.p_avg_Pa) + " Pa, T " + num(iv.T_avg_K) + " K) is " + why + " (" +
+                     r.calc_status + ")");
+    }
+    // The recalculation.
+    const double worst = r.worst_ppm();
+    if (worst > opt.tolerance_ppm) {
+      if (res.over_bar.size() < 100) res.over_bar.emplace_back(iv, r);
+      ++res.over_bar_total;
+      runs.add(Kind::calc_difference, Severity::critical, "calc", iv, fin(r.V_b_m3 - iv.V_b_m3), fin(fin(r.E_MJ) - fin(iv.E_MJ)),
+               std::isfinite(worst) ? std::max({std::fabs(fin(r.dZ_f_ppm)), std::fabs(fin(r.dZ_b_ppm)), std::fabs(fin(r.dC_ppm)),
+                                                std::fabs(fin(r.dV_b_ppm)), std::fabs(fin(r.dE_ppm))})
+                                    : 1e300,
+               "the recomputed Z_f, Z_b, C, base volume or energy differs from the log by more than " + num(opt.tolerance_ppm) +
+                   " ppm (volume and energy at stake = recomputed - logged)");
+    }
+  });
+  runs.close_all();
+  res.replay = rp.totals();
+  if (opt.what_if.any()) {
+    if (opt.what_if.analysis_seq && !rp.analyses().count(*opt.what_if.analysis_seq))
+      throw io::InputError("what-if analysis", std::to_string(*opt.what_if.analysis_seq), "the seq of a gas_analysis record of the log");
+    Replayer w(log, what_if_methods, {}, opt.what_if);
+    w.run(opt.selection, [](const LoggedInterval&, const IntervalReplay&) {});
+    res.what_if = w.totals();
+    res.what_if_run = true;
+  }
+
+  // The verifier's findings.
+  if (verifier.joinable()) verifier.join();
+  if (verify_error) std::rethrow_exception(verify_error);
+  res.records = v.records;
+  res.log_id = v.log_id;
+  res.head_hash_hex = record::to_hex(v.head_hash);
+  std::map<std::string, std::size_t> cum_open;
+  std::map<std::string, std::int64_t> cum_count;
+  std::map<std::string, std::string> first_cum_detail;
+  for (const auto& f : v.findings) {
+    AuditFinding a;
+    const bool totals = f.kind == "register_mismatch" || f.kind == "total_mismatch";
+    a.kind = totals ? Kind::totals_mismatch : Kind::broken_chain;
+    a.severity = Severity::critical;
+    a.first_seq = a.last_seq = f.seq;
+    a.from_utc_s = a.to_utc_s = f.time_utc_s;
+    a.detail = f.kind + ": " + f.table + " seq " + std::to_string(f.seq) + ": " + f.detail;
+    if (f.table == "interval" || f.table == "qtr") {
+      Stmt s(db, "SELECT point, start_utc_s, end_utc_s, V_b_um3, E_J FROM " + f.table + " WHERE seq = ?");
+      s.bind(1, f.seq);
+      if (s.step()) {
+        a.point = s.text(0);
+        a.from_utc_s = s.i64(1);
+        a.to_utc_s = s.i64(2);
+        a.V_b_m3 = static_cast<double>(s.i64(3)) * record::volume_quantum_m3;
+        a.E_MJ = static_cast<double>(s.i64(4)) * 1e-6;
+        a.intervals = f.table == "interval" ? 1 : 0;
+      }
+    }
+    if (opt.selection.point && !a.point.empty() && a.point != *opt.selection.point) continue;
+    // One changed interval puts every later register reading of its point
+    // out: those follow-on readings are one finding.
+    const bool cum = f.kind == "total_mismatch" && f.detail.find("register readings") != std::string::npos;
+    if (cum) {
+      if (auto it = cum_open.find(a.point); it != cum_open.end()) {
+        AuditFinding& o = res.findings[it->second];
+        o.from_utc_s = std::min(o.from_utc_s, a.from_utc_s);
+        o.to_utc_s = std::max(o.to_utc_s, a.to_utc_s);
+        o.last_seq = a.last_seq;
+        ++cum_count[a.point];
+        o.detail = first_cum_detail[a.point] + " (and " + std::to_string(cum_count[a.point]) +
+                   " later quantity records of the point, whose register readings carry the same difference)";
+        continue;
+      }
+      cum_open[a.point] = res.findings.size();
+      first_cum_detail[a.point] = a.detail;
+    }
+    res.findings.push_back(a);
+  }
+  if (v.findings_total > static_cast<std::int64_t>(v.findings.size())) {
+    AuditFinding a;
+    a.kind = Kind::broken_chain;
+    a.severity = Severity::critical;
+    a.detail = std::to_string(v.findings_total - static_cast<std::int64_t>(v.findings.size())) +
+               " more chain or totals findings not listed";
+    res.findings.push_back(a);
+  }
+
+
+  std::stable_sort(res.findings.begin(), res.findings.end(), [](const AuditFinding& a, const AuditFinding& b) {
+    if (a.point != b.point) return a.point < b.point;
+    if (a.from_utc_s != b.from_utc_s) return a.from_utc_s < b.from_utc_s;
+    return a.kind < b.kind;
+  });
+  return res;
+}
+
+}  // namespace zcorr::audit

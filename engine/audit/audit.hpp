@@ -1,0 +1,113 @@
+// zcorr audit: everything wrong with an interval log, each finding with the
+// intervals it concerns and the base volume and energy at stake.
+//
+// Finding kinds (kind_name()):
+//   broken_chain         the hash chain does not hold (record changed, removed, inserted,
+//                        link broken, bad correction) -- from record::verify_log
+//   totals_mismatch      an interval register or a quantity transaction record's totals
+//                        do not add up -- from record::verify_log
+//   gap                  time between two intervals of a point with no interval, or an
+//                        interval the recorder flagged for missing data
+//   overlap              an interval starting before the previous one of the point ended
+//   duplicate            a second interval with the same start and end (not a correction)
+//   stale_analysis       the gas analysis in force is older than the allowed age
+//   contract_mismatch    base conditions or method differ from the contract file
+//   outside_method_range the averaged state lies outside the method's normal range
+//                        (expanded range, extrapolated, or refused)
+//   calc_difference      the replay differs from the log beyond the tolerance (ppm)
+//   config_without_event a configuration record with no matching config_change event
+//   not_replayed         an interval that could not be recomputed (unknown method, missing record)
+// Consecutive intervals with the same kind and cause form one finding.
+// "At stake": the base volume and energy of the intervals concerned (for a
+// calculation difference, the difference itself; for a gap, an estimate from
+// the rate of the interval before it; for a duplicate, the duplicate's own).
+//
+// Contract file (our own format): `key = value` lines, '#' comments.
+//   point   = ID           the point it applies to (absent: every point)
+//   method  = NAME         required line method (gerg2008, detail, ...)
+//   base_T  = 15 degC      contractual base temperature (units as in the point configuration)
+//   base_p  = 101.325 kPa  contractual base pressure, absolute
+//   tolerance_ppm = 1      allowed relative difference of base_T and base_p (default 1 ppm)
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "audit/replay.hpp"
+
+namespace zcorr::audit {
+
+enum class Kind {
+  broken_chain,
+  totals_mismatch,
+  gap,
+  overlap,
+  duplicate,
+  stale_analysis,
+  contract_mismatch,
+  outside_method_range,
+  calc_difference,
+  config_without_event,
+  not_replayed
+};
+[[nodiscard]] std::string_view kind_name(Kind k) noexcept;
+
+enum class Severity { info, warning, critical };
+[[nodiscard]] std::string_view severity_name(Severity s) noexcept;
+
+struct AuditFinding {
+  Kind kind{};
+  Severity severity = Severity::warning;
+  std::string point;             // empty when not tied to a point
+  std::int64_t from_utc_s = 0;   // interval range [from, to); 0/0 when unknown
+  std::int64_t to_utc_s = 0;
+  std::int64_t intervals = 0;    // intervals concerned
+  std::int64_t first_seq = 0;    // first record concerned
+  std::int64_t last_seq = 0;
+  double V_b_m3 = 0;             // base volume at stake
+  double E_MJ = 0;               // energy at stake
+  double worst_ppm = 0;          // calc_difference: the largest deviation
+  std::string detail;
+};
+
+struct Contract {
+  std::optional<std::string> point;
+  std::optional<std::string> method;
+  std::optional<double> base_T_K, base_p_Pa;
+  double tolerance_ppm = 1.0;
+};
+// Throws io::InputError naming the line.
+[[nodiscard]] Contract parse_contract(std::string_view text, std::string_view source);
+[[nodiscard]] Contract load_contract(const std::string& path);
+
+struct AuditOptions {
+  Selection selection;
+  std::optional<Contract> contract;
+  double max_analysis_age_h = 840;     // 35 days (common practice: a monthly spot sample, with margin)
+  double tolerance_ppm = recalculation_bar_ppm;
+  std::size_t max_chain_findings = 1000;
+  WhatIf what_if;        // when any() is set: a second replay with these changes, totals side by side
+  bool parallel = true;  // check the chain on a second connection in a second thread while replaying
+};
+
+struct AuditResult {
+  std::vector<AuditFinding> findings;
+  ReplayTotals replay;
+  std::int64_t records = 0;          // chained records checked
+  std::string log_id;
+  std::string head_hash_hex;
+  // The log's own totals (every interval that is not corrected) in the selection.
+  std::int64_t V_b_um3 = 0, E_J = 0;
+  std::vector<std::pair<LoggedInterval, IntervalReplay>> over_bar;  // at most 100 intervals missing the bar, for the report
+  std::int64_t over_bar_total = 0;
+  bool what_if_run = false;
+  ReplayTotals what_if;  // V_b_um3_logged / E_J_logged: as logged; *_replayed: with the what-if changes
+};
+
+// Runs every check. Throws record::LogError when the log cannot be read.
+[[nodiscard]] AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFactory methods);
+
+}  // namespace zcorr::audit

@@ -1,0 +1,153 @@
+// zcorr replay: recompute the intervals of a log with the configuration and
+// the gas analysis each one names (config_seq, analysis_seq), and compare
+// with what was logged.
+//
+// What can be recomputed. The log keeps each interval's averages, volumes
+// and integral value, not the raw samples. The replay therefore rebuilds the
+// interval from what the log holds and runs it through the recorder's own
+// interval computation (record::compute_interval):
+//  * the gas in force: the analysis is prepared again, Z_b computed again at
+//    the configuration's base conditions, Hs taken from the analysis (or from
+//    ISO 6976 at the base conditions when it has none), exactly as the
+//    recorder does it;
+//  * the interval as one sample at the logged averages (p_avg, T_avg) with
+//    the converted line volume V_conv = V_ind * meter_factor - V_fault, so
+//    Z_f, Fp, Ft, Fz and, for average_then_correct, V_b and E are the
+//    recorder's figures again;
+//  * per_sample integration: Z_f at the averages and Z_b are recomputed; the
+//    base volume is V_b = I * T_b * Z_b / p_b with the logged integral value
+//    I (the samples behind I are not kept in the log, so I itself cannot be
+//    recomputed; what follows from it can).
+//  * an interval partly in alarm (V_fault > 0): V_conv is known only to the
+//    fault register's resolution, so V_b comes from the logged I as for
+//    per_sample and C is not compared.
+// The comparison is relative, in ppm of the logged value. The industry's
+// recalculation bar is 50 ppm of the logged quantity (API MPMS 21.1, as
+// summarised in the project's standards notes).
+//
+// Streamed: one interval at a time in (point, start) order; configurations
+// and analyses (few records) are cached by seq.
+#pragma once
+
+#include <cstdint>
+#include <functional>
+#include <limits>
+#include <map>
+#include <memory>
+#include <optional>
+#include <string>
+
+#include "eval/line_method.hpp"
+#include "record/config.hpp"
+#include "record/interval_calc.hpp"
+#include "record/log.hpp"
+
+namespace zcorr::audit {
+
+inline constexpr double nan_v = std::numeric_limits<double>::quiet_NaN();
+inline constexpr double recalculation_bar_ppm = 50.0;  // API MPMS 21.1 (standards notes)
+
+// Makes the line method a configuration names; nullptr when unknown.
+using MethodFactory = std::function<std::unique_ptr<LineMethod>(const std::string& name)>;
+// The methods of this build (eval/registry).
+[[nodiscard]] MethodFactory built_in_methods();
+
+struct Selection {
+  std::optional<std::string> point;
+  std::optional<std::int64_t> from_utc_s;  // intervals ending after
+  std::optional<std::int64_t> to_utc_s;    // intervals starting before
+};
+
+// One interval as logged (the columns the audit needs).
+struct LoggedInterval {
+  std::int64_t seq = 0, config_seq = 0, analysis_seq = 0;  // analysis_seq 0 = NULL
+  std::string point;
+  std::int64_t start_utc_s = 0, end_utc_s = 0, flow_time_s = 0, alarm_time_s = 0, samples = 0;
+  std::string integration;
+  double p_avg_Pa = nan_v, T_avg_K = nan_v, V_ind_m3 = 0, V_f_m3 = 0;
+  double Z_f = nan_v, Z_b = nan_v, C = nan_v, I = nan_v, V_b_m3 = 0, Hs = nan_v, E_MJ = nan_v;
+  std::int64_t V_f_um3 = 0, V_b_um3 = 0, V_fault_um3 = 0, E_J = 0, flags = 0;
+  std::string calc_status, method;
+  std::int64_t corrects_seq = 0;  // 0 = not a correction
+};
+
+struct GasRecord {
+  std::int64_t seq = 0, valid_from_utc_s = 0;
+  std::optional<std::int64_t> sampled_utc_s;
+  Fractions<double> x{};
+  double Hs = nan_v;
+};
+
+// The recomputed figures of one interval and their deviations (ppm of the
+// logged value; NaN when not comparable).
+struct IntervalReplay {
+  bool replayed = false;
+  std::string why_not;  // when not replayed
+  double Z_f = nan_v, Z_b = nan_v, C = nan_v, V_b_m3 = 0, E_MJ = nan_v;
+  std::int64_t V_b_um3 = 0, E_J = 0;
+  std::int64_t flags = 0;  // record::iflag bits of the recomputation (expanded_range, extrapolated, calc_failed, ...)
+  std::string calc_status; // the method's status at the averages ('ok', 'out_of_range', 'ok;range=expanded', ...)
+  double dZ_f_ppm = nan_v, dZ_b_ppm = nan_v, dC_ppm = nan_v, dV_b_ppm = nan_v, dE_ppm = nan_v;
+  [[nodiscard]] double worst_ppm() const noexcept;  // largest |deviation|
+};
+
+struct ReplayTotals {
+  std::int64_t intervals = 0, replayed = 0, not_replayed = 0, over_bar = 0;
+  std::int64_t V_b_um3_logged = 0, V_b_um3_replayed = 0, E_J_logged = 0, E_J_replayed = 0;
+  double max_dZ_f_ppm = 0, max_dZ_b_ppm = 0, max_dC_ppm = 0, max_dV_b_ppm = 0, max_dE_ppm = 0;
+};
+
+// What-if recomputation: the same intervals with another method, base
+// condition or analysis. The integral value I is rescaled by Z_f(logged) /
+// Z_f(what-if) at the averages when the method or the analysis changes
+// (exact for average_then_correct, first order for per_sample); it does not
+// depend on the base conditions. Energy is the what-if base volume times the
+// analysis' Hs as logged (Hs stated at the configured base conditions; with
+// another base condition and an analysis that gives Hs, the energy figure
+// is therefore not re-based -- a known limit). Not written to the log.
+struct WhatIf {
+  std::optional<std::string> method;
+  std::optional<double> base_T_K, base_p_Pa;
+  std::optional<std::int64_t> analysis_seq;  // use this gas_analysis record for every interval
+  [[nodiscard]] bool any() const noexcept { return method || base_T_K || base_p_Pa || analysis_seq; }
+};
+
+// Reads a log's configurations and analyses once, then replays intervals.
+class Replayer {
+ public:
+  Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval = {}, WhatIf what_if = {});
+  Replayer(const Replayer&) = delete;
+  Replayer& operator=(const Replayer&) = delete;
+
+  // Every interval of the selection in (point, start, seq) order. Corrected
+  // originals are included (LoggedInterval::corrects_seq marks corrections);
+  // `visit` decides what to count.
+  void run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit);
+  // Replays one logged interval.
+  [[nodiscard]] IntervalReplay replay(const LoggedInterval& iv);
+
+  [[nodiscard]] const std::map<std::int64_t, record::PointConfig>& configs() const noexcept { return configs_; }
+  [[nodiscard]] const std::map<std::int64_t, GasRecord>& analyses() const noexcept { return analyses_; }
+  [[nodiscard]] const ReplayTotals& totals() const noexcept { return totals_; }
+
+ private:
+  LineMethod* method_for(const std::string& name);
+
+  const record::Log& log_;
+  MethodFactory factory_;
+  EvalOptions eval_;
+  WhatIf what_if_;
+  std::map<std::int64_t, record::PointConfig> configs_;
+  std::map<std::int64_t, GasRecord> analyses_;
+  std::map<std::string, std::unique_ptr<LineMethod>> methods_;
+  // The prepared gas: (method, config, analysis) it belongs to.
+  std::string gas_method_;
+  std::int64_t gas_config_ = -1, gas_analysis_ = -1;
+  record::GasInForce gas_;
+  ReplayTotals totals_;
+};
+
+// Reads one row of the audit's interval query (for the replay's own use and the tests).
+[[nodiscard]] std::string logged_interval_columns();
+
+}  // namespace zcorr::audit
