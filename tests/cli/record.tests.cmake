@@ -23,11 +23,14 @@ zcorr_cli_test(NAME record_help ARGS record --help MATCH "integration \\(per_sam
 zcorr_cli_test(NAME record_bad_config ARGS record --db ${LOG_DIR}/x.db --config ${CLI_DATA}/bad_point.conf --samples -
                EXPECT_EXIT 2 MATCH "bad_point.conf:4 meter_factor: 'one' is not accepted")
 if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
-  file(REMOVE ${LOG_DIR}/rec.db ${LOG_DIR}/rec.db-wal ${LOG_DIR}/rec.db-shm)
+  # Each ctest run records into a fresh log.
+  add_test(NAME cli.record_fresh_log COMMAND ${CMAKE_COMMAND} -E rm -f ${LOG_DIR}/rec.db ${LOG_DIR}/rec.db-wal ${LOG_DIR}/rec.db-shm)
+  set_tests_properties(cli.record_fresh_log PROPERTIES FIXTURES_SETUP cli_rec_log)
   zcorr_cli_test(NAME record_samples ARGS record --db ${LOG_DIR}/rec.db --config ${CLI_DATA}/point.conf --samples
                  ${CLI_DATA}/samples.csv --analyses ${CLI_DATA}/analyses.csv EXPECT_EXIT 1 MATCH "bad rows           1")
   zcorr_cli_test(NAME record_rerun_resumes ARGS record --db ${LOG_DIR}/rec.db --config ${CLI_DATA}/point.conf
                  --samples ${CLI_DATA}/samples.csv MATCH "rows read          180 \\(180 already recorded")
+  set_tests_properties(cli.record_samples PROPERTIES FIXTURES_REQUIRED cli_rec_log)
   set_tests_properties(cli.record_rerun_resumes PROPERTIES DEPENDS cli.record_samples)
   zcorr_cli_test(NAME record_then_verify ARGS verify --db ${LOG_DIR}/rec.db MATCH "result    clean")
   set_tests_properties(cli.record_then_verify PROPERTIES DEPENDS cli.record_rerun_resumes)
