@@ -104,7 +104,7 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     r.why_not = "method '" + cfg.method + "' is not available in this build";
     return r;
   }
-  // The gas in force, prepared as the recorder prepares it (Recorder::set_gas).
+  // The gas in force, prepared as the recorder prepares it (record::prepare_gas).
   if (gas_method_ != cfg.method || gas_config_ != iv.config_seq || gas_analysis_ != analysis_seq) {
     gas_ = record::GasInForce{};
     gas_method_ = cfg.method;
@@ -114,28 +114,7 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     if (analysis_seq && ait == analyses_.end()) {
       gas_.status = "no_analysis";
     } else if (ait != analyses_.end()) {
-      const GasRecord& g = ait->second;
-      gas_.seq = g.seq;
-      gas_.Hs_MJ_per_m3 = g.Hs;
-      const Status ps = m->prepare(g.x);
-      if (!ps.ok()) {
-        gas_.status = std::string("analysis_refused;") + code_name(ps.code);
-      } else {
-        const StateOutput b = m->state(cfg.base_T_K, cfg.base_p_Pa, eval_);
-        if (!b.status.ok()) {
-          gas_.status = std::string("base_state_refused;") + code_name(b.status.code);
-        } else {
-          gas_.Z_b = b[Quantity::Z];
-          gas_.usable = true;
-          gas_.status = "ok";
-          if (std::isnan(g.Hs)) {
-            if (const auto mref = metering_ref_for(cfg.base_T_K)) {
-              const auto props = iso6976::properties(g.x, default_combustion_for(cfg.base_T_K), *mref, cfg.base_p_Pa);
-              if (props.status.ok()) gas_.Hs_MJ_per_m3 = props.Hs_MJ_per_m3;
-            }
-          }
-        }
-      }
+      gas_ = record::prepare_gas(*m, ait->second.x, ait->second.Hs, ait->second.seq, cfg, eval_);
     }
   }
 

@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "eval/conversion.hpp"
 #include "record/log.hpp"
 
 namespace zcorr::record {
@@ -40,6 +41,33 @@ struct Avg {
 };
 
 }  // namespace
+
+GasInForce prepare_gas(LineMethod& method, const Fractions<double>& x, double Hs_MJ_per_m3, std::int64_t seq,
+                       const PointConfig& cfg, const EvalOptions& eval) {
+  GasInForce gas;
+  gas.seq = seq;
+  gas.Hs_MJ_per_m3 = Hs_MJ_per_m3;
+  const Status ps = method.prepare(x);
+  if (!ps.ok()) {
+    gas.status = std::string("analysis_refused;") + code_name(ps.code);
+    return gas;
+  }
+  const StateOutput b = method.state(cfg.base_T_K, cfg.base_p_Pa, eval);
+  if (!b.status.ok()) {
+    gas.status = std::string("base_state_refused;") + code_name(b.status.code);
+    return gas;
+  }
+  gas.Z_b = b[Quantity::Z];
+  gas.usable = true;
+  gas.status = "ok";
+  if (std::isnan(Hs_MJ_per_m3)) {
+    if (const auto mref = metering_ref_for(cfg.base_T_K)) {
+      const auto props = iso6976::properties(x, default_combustion_for(cfg.base_T_K), *mref, cfg.base_p_Pa);
+      if (props.status.ok()) gas.Hs_MJ_per_m3 = props.Hs_MJ_per_m3;
+    }
+  }
+  return gas;
+}
 
 IntervalResult compute_interval(std::span<const Sample> samples, const PointConfig& cfg, const LineMethod& method,
                                 const GasInForce& gas, const EvalOptions& eval) {

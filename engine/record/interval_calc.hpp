@@ -82,6 +82,14 @@ struct IntervalResult {
 // Rounds a quantity to its register resolution (half away from zero).
 [[nodiscard]] std::int64_t to_register(double value, double quantum) noexcept;
 
+// Prepares `method` for the analysis x and computes what every interval under
+// it shares: Z_b at the configuration's base conditions and, when the analysis
+// gives no Hs (NaN), Hs by ISO 6976 at the base conditions with the combustion
+// reference usually paired with them (eval/conversion.hpp). The recorder and
+// the replay both use it, so a replay prepares the gas exactly as recorded.
+[[nodiscard]] GasInForce prepare_gas(LineMethod& method, const Fractions<double>& x, double Hs_MJ_per_m3, std::int64_t seq,
+                                     const PointConfig& cfg, const EvalOptions& eval);
+
 [[nodiscard]] IntervalResult compute_interval(std::span<const Sample> samples, const PointConfig& cfg, const LineMethod& method,
                                               const GasInForce& gas, const EvalOptions& eval);
 

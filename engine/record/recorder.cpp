@@ -122,33 +122,9 @@ void Recorder::load_state() {
 }
 
 void Recorder::set_gas(const Fractions<double>& x, double Hs, std::int64_t seq) {
-  gas_ = GasInForce{};
-  gas_.seq = seq;
-  gas_.Hs_MJ_per_m3 = Hs;
   gas_x_ = x;
   have_gas_x_ = true;
-  const Status ps = method_.prepare(x);
-  if (!ps.ok()) {
-    gas_.status = std::string("analysis_refused;") + code_name(ps.code);
-    return;
-  }
-  const StateOutput b = method_.state(cfg_.base_T_K, cfg_.base_p_Pa, opt_.eval);
-  if (!b.status.ok()) {
-    gas_.status = std::string("base_state_refused;") + code_name(b.status.code);
-    return;
-  }
-  gas_.Z_b = b[Quantity::Z];
-  gas_.usable = true;
-  gas_.status = "ok";
-  if (std::isnan(Hs)) {
-    // No Hs in the analysis: ISO 6976 at the base conditions (metering
-    // reference = base temperature and pressure), with the combustion
-    // reference usually paired with it (eval/conversion.hpp).
-    if (const auto mref = metering_ref_for(cfg_.base_T_K)) {
-      const auto props = iso6976::properties(x, default_combustion_for(cfg_.base_T_K), *mref, cfg_.base_p_Pa);
-      if (props.status.ok()) gas_.Hs_MJ_per_m3 = props.Hs_MJ_per_m3;
-    }
-  }
+  gas_ = prepare_gas(method_, x, Hs, seq, cfg_, opt_.eval);
 }
 
 void Recorder::add_analyses(const std::vector<AnalysisInput>& list) {
