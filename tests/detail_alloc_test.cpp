@@ -4,6 +4,8 @@
 // LineMethod adapter) make zero heap allocations.
 #include <gtest/gtest.h>
 
+#include "support/allocation_counter.hpp"
+
 #include <atomic>
 #include <cstdlib>
 #include <new>
@@ -12,32 +14,9 @@
 #include "methods/detail.hpp"
 
 namespace {
-std::atomic<long> g_allocations{0};
 int* volatile g_escape = nullptr;  // keeps the self-check's allocation from being optimised away
 }
 
-void* operator new(std::size_t n) {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
-  throw std::bad_alloc();
-}
-void* operator new[](std::size_t n) {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
-  throw std::bad_alloc();
-}
-void* operator new(std::size_t n, const std::nothrow_t&) noexcept {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  return std::malloc(n == 0 ? 1 : n);
-}
-void* operator new[](std::size_t n, const std::nothrow_t&) noexcept {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  return std::malloc(n == 0 ? 1 : n);
-}
-void operator delete(void* p) noexcept { std::free(p); }
-void operator delete[](void* p) noexcept { std::free(p); }
-void operator delete(void* p, std::size_t) noexcept { std::free(p); }
-void operator delete[](void* p, std::size_t) noexcept { std::free(p); }
 
 using namespace zcorr;
 using C = Component;
@@ -67,10 +46,10 @@ Fractions<double> gas4() {
 }  // namespace
 
 TEST(DetailAllocations, CountingAllocatorSeesAllocations) {
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   g_escape = new int(3);
   delete g_escape;
-  EXPECT_EQ(g_allocations.load() - before, 1);  // the counter works
+  EXPECT_EQ(heap::allocations() - before, 1);  // the counter works
 }
 
 TEST(DetailAllocations, PrepareAndStateAllocateNothing) {
@@ -78,7 +57,7 @@ TEST(DetailAllocations, PrepareAndStateAllocateNothing) {
   aga8_detail::Prepared<double> prep;
   SolveOptions opt;
   double sink = 0;
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   const Status s = aga8_detail::prepare(x, prep);
   for (double T : {270.0, 300.0, 330.0})
     for (double p : {1e5, 6e6, 12e6}) {
@@ -88,7 +67,7 @@ TEST(DetailAllocations, PrepareAndStateAllocateNothing) {
       sink += z.Z;
     }
   sink += aga8_detail::evaluate(prep, -1.0, 1e6, opt).Z;  // a refused state too
-  const long after = g_allocations.load();
+  const long after = heap::allocations();
   EXPECT_TRUE(s.ok());
   EXPECT_GT(sink, 0.0);
   EXPECT_EQ(after - before, 0);
@@ -101,11 +80,11 @@ TEST(DetailAllocations, AdapterStateAllocatesNothing) {
   EvalOptions opt;
   opt.derived = true;
   double sink = 0;
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   const Status s = m->prepare(x);
   for (double T : {270.0, 300.0, 330.0})
     for (double p : {1e5, 6e6, 12e6}) sink += m->state(T, p, opt)[Quantity::Z];
-  const long after = g_allocations.load();
+  const long after = heap::allocations();
   EXPECT_TRUE(s.ok());
   EXPECT_GT(sink, 0.0);
   EXPECT_EQ(after - before, 0);

@@ -4,6 +4,8 @@
 // reads of the counter.
 #include <gtest/gtest.h>
 
+#include "support/allocation_counter.hpp"
+
 #include <atomic>
 #include <cstdlib>
 #include <new>
@@ -12,31 +14,8 @@
 #include "methods/gerg2008.hpp"
 
 namespace {
-std::atomic<long> g_allocations{0};
 }
 
-void* operator new(std::size_t n) {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
-  throw std::bad_alloc();
-}
-void* operator new[](std::size_t n) {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
-  throw std::bad_alloc();
-}
-void* operator new(std::size_t n, const std::nothrow_t&) noexcept {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  return std::malloc(n == 0 ? 1 : n);
-}
-void* operator new[](std::size_t n, const std::nothrow_t&) noexcept {
-  g_allocations.fetch_add(1, std::memory_order_relaxed);
-  return std::malloc(n == 0 ? 1 : n);
-}
-void operator delete(void* p) noexcept { std::free(p); }
-void operator delete[](void* p) noexcept { std::free(p); }
-void operator delete(void* p, std::size_t) noexcept { std::free(p); }
-void operator delete[](void* p, std::size_t) noexcept { std::free(p); }
 
 using namespace zcorr;
 
@@ -60,22 +39,22 @@ Fractions<double> gas() {
 }  // namespace
 
 TEST(Gerg2008Allocations, CountingOperatorNewWorks) {
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   void* p = ::operator new(sizeof(int));  // a direct call cannot be elided
   ::operator delete(p);
-  EXPECT_EQ(g_allocations.load() - before, 1);
+  EXPECT_EQ(heap::allocations() - before, 1);
 }
 
 TEST(Gerg2008Allocations, PrepareAndStateDoNotAllocate) {
   static gerg2008::Prepared<double> p;  // static: the test itself must not allocate either
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   const auto st = gerg2008::prepare(gas(), p);
   double sum = 0;
   for (double T : {260.0, 288.15, 320.0})
     for (double P : {1e5, 5e6, 12e6}) sum += gerg2008::state(p, T, P).Z;
   // status paths too
   sum += gerg2008::state(p, -1.0, 1e6).Z + gerg2008::state(p, 900.0, 1e6).Z;
-  const long after = g_allocations.load();
+  const long after = heap::allocations();
   EXPECT_TRUE(st.ok());
   EXPECT_GT(sum, 7.0);  // nine computed states, Z about 0.8-1 each
   EXPECT_EQ(after - before, 0);
@@ -86,11 +65,11 @@ TEST(Gerg2008Allocations, LineMethodStateDoesNotAllocate) {
   ASSERT_NE(m, nullptr);
   EvalOptions opt;
   opt.derived = true;
-  const long before = g_allocations.load();
+  const long before = heap::allocations();
   const auto st = m->prepare(gas());
   double w = 0;
   for (double T : {260.0, 300.0, 340.0}) w += m->state(T, 8e6, opt)[Quantity::w_m_per_s];
-  const long after = g_allocations.load();
+  const long after = heap::allocations();
   EXPECT_TRUE(st.ok());
   EXPECT_GT(w, 900.0);
   EXPECT_EQ(after - before, 0);
