@@ -4,6 +4,7 @@
 
 #include "core/components.hpp"
 #include "io/input_error.hpp"
+#include "io/status_text.hpp"
 
 namespace zcorr::cli {
 
@@ -41,16 +42,7 @@ io::ParsedComposition GasOptions::load() const {
   return io::parse_composition_list(gas, composition_options());
 }
 
-std::string status_text(const Status& s) {
-  std::string out = code_name(s.code);
-  if (s.range == RangeClass::expanded || s.range == RangeClass::outside) out += std::string(";range=") + range_name(s.range);
-  if (s.has(flag::extrapolated)) out += ";extrapolated";
-  if (s.has(flag::dew_point_suspected)) out += ";dew_point_suspected";
-  if (s.has(flag::iteration_cap)) out += ";iteration_cap";
-  if (s.has(flag::doubtful_data)) out += ";doubtful_data";
-  if (s.component != no_component) out += ";component=" + std::string(component_name(s.component));
-  return out;
-}
+std::string status_text(const Status& s) { return io::status_text(s); }
 
 int guarded(const char* command, const std::function<int()>& body) {
   try {

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "core/components.hpp"
+#include "io/status_text.hpp"
 #include "io/csv.hpp"
 #include "io/input_error.hpp"
 #include "io/text.hpp"
@@ -87,16 +88,7 @@ void check_header(std::istream& data, std::string_view data_name, const ColumnMa
   (void)resolve_columns(header, map);
 }
 
-std::string status_brief(const Status& s) {
-  std::string out = code_name(s.code);
-  if (s.range == RangeClass::expanded || s.range == RangeClass::outside) out += std::string(";range=") + range_name(s.range);
-  if (s.has(flag::extrapolated)) out += ";extrapolated";
-  if (s.has(flag::dew_point_suspected)) out += ";dew_point_suspected";
-  if (s.has(flag::iteration_cap)) out += ";iteration_cap";
-  if (s.has(flag::doubtful_data)) out += ";doubtful_data";
-  if (s.component != no_component) out += ";component=" + std::string(component_name(s.component));
-  return out;
-}
+std::string status_brief(const Status& s) { return io::status_text(s); }
 
 ExportReport check_export(std::istream& data, std::string_view data_name, const ColumnMap& map, LineMethod& method,
                           const BaseConditions& base, const Tolerances& tolerances, const EvalOptions& eval) {
