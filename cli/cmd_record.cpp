@@ -66,14 +66,7 @@ int run_record(const RecordCliOptions& o) {
   Recorder rec(log, cfg, *method, ro);
   for (const auto& b : af.bad) rec.add_bad_analysis(b);
   rec.add_analyses(af.analyses);
-  RawSample s;
-  BadRow bad;
-  for (;;) {
-    const auto k = reader.next(s, bad);
-    if (k == SampleReader::Next::end) break;
-    if (k == SampleReader::Next::sample) rec.add_sample(s);
-    else rec.add_bad_row(bad);
-  }
+  rec.feed(reader);
   rec.finish();
   const auto& st = rec.stats();
   const std::int64_t bad_rows = st.bad_rows + static_cast<std::int64_t>(af.bad.size());

@@ -144,14 +144,7 @@ RecordStats record_files(const std::filesystem::path& db, const std::filesystem:
   Recorder rec(log, cfg, *method, ro);
   for (const auto& b : a.bad) rec.add_bad_analysis(b);
   rec.add_analyses(a.analyses);
-  RawSample s;
-  BadRow bad;
-  for (;;) {
-    const auto k = reader.next(s, bad);
-    if (k == SampleReader::Next::end) break;
-    if (k == SampleReader::Next::sample) rec.add_sample(s);
-    else rec.add_bad_row(bad);
-  }
+  rec.feed(reader);
   rec.finish();
   return rec.stats();
 }

@@ -487,4 +487,15 @@ void Recorder::finish() {
   }
 }
 
+void Recorder::feed(SampleReader& reader) {
+  RawSample s;
+  BadRow bad;
+  for (;;) {
+    const auto k = reader.next(s, bad);
+    if (k == SampleReader::Next::end) break;
+    if (k == SampleReader::Next::sample) add_sample(s);
+    else add_bad_row(bad);
+  }
+}
+
 }  // namespace zcorr::record

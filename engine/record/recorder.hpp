@@ -63,6 +63,8 @@ class Recorder {
   void add_bad_analysis(const BadRow& bad);
   void add_sample(const RawSample& s);
   void add_bad_row(const BadRow& bad);
+  // Feeds every sample and bad row of the reader, in order (finish() not included).
+  void feed(SampleReader& reader);
   // Commits what is complete; the rows of an incomplete last interval are left.
   void finish();
   [[nodiscard]] const RecordStats& stats() const noexcept { return stats_; }

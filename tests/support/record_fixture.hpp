@@ -80,14 +80,7 @@ inline record::RecordStats record_text(record::Log& log, const record::PointConf
   }
   std::istringstream in(csv);
   record::SampleReader reader(in, "test.csv", cfg);
-  record::RawSample s;
-  record::BadRow bad;
-  for (;;) {
-    auto k = reader.next(s, bad);
-    if (k == record::SampleReader::Next::end) break;
-    if (k == record::SampleReader::Next::sample) rec.add_sample(s);
-    else rec.add_bad_row(bad);
-  }
+  rec.feed(reader);
   rec.finish();
   return rec.stats();
 }
