@@ -15,6 +15,7 @@
 #include <memory>
 #include <vector>
 
+#include "support/sample_gases.hpp"
 #include "eval/line_method.hpp"
 #include "record/log.hpp"
 #include "record/recorder.hpp"
@@ -48,18 +49,7 @@ AnalysisInput analysis(std::int64_t t0) {
   AnalysisInput a;
   a.valid_from_utc_s = t0;
   a.source = "bench";
-  a.x[index(Component::methane)] = 0.9;
-  a.x[index(Component::nitrogen)] = 0.02;
-  a.x[index(Component::carbon_dioxide)] = 0.015;
-  a.x[index(Component::ethane)] = 0.045;
-  a.x[index(Component::propane)] = 0.012;
-  a.x[index(Component::n_butane)] = 0.002;
-  a.x[index(Component::isobutane)] = 0.002;
-  a.x[index(Component::n_pentane)] = 0.0008;
-  a.x[index(Component::isopentane)] = 0.0007;
-  a.x[index(Component::n_hexane)] = 0.0004;
-  a.x[index(Component::hydrogen)] = 0.0015;
-  a.x[index(Component::helium)] = 0.0006;
+  a.x = samples::pipeline_gas_12();
   a.Hs_MJ_per_m3 = 40.1;
   return a;
 }
