@@ -4,6 +4,7 @@
 #include <array>
 #include <cmath>
 #include <fstream>
+#include <limits>
 #include <set>
 #include <sstream>
 #include <thread>
@@ -239,8 +240,20 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   double prev_rate_Vb = 0, prev_rate_E = 0;  // per second, for a gap estimate
   const double max_age_s = opt.max_analysis_age_h * 3600.0;
 
+  std::int64_t progress_total = 0, progress_done = 0;
+  if (opt.progress) {
+    Stmt s(db, "SELECT count(*) FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3");
+    if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
+    s.bind(2, opt.selection.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min()));
+    s.bind(3, opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));
+    if (s.step()) progress_total = s.i64(0);
+    opt.progress(0, progress_total);
+  }
+
   rp.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
     const bool is_corrected = corrected.count(iv.seq) != 0;
+    if (opt.observe) opt.observe(iv, r, !is_corrected);
+    if (opt.progress && (++progress_done & 4095) == 0) opt.progress(progress_done, std::max(progress_total, progress_done));
     const double Vb = static_cast<double>(iv.V_b_um3) * record::volume_quantum_m3;
     const double E = static_cast<double>(iv.E_J) * 1e-6;
     if (!is_corrected) {
@@ -366,6 +379,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     }
   });
   runs.close_all();
+  if (opt.progress) opt.progress(progress_done, progress_done);
   res.replay = rp.totals();
   if (opt.what_if.any()) {
     if (opt.what_if.analysis_seq && !rp.analyses().count(*opt.what_if.analysis_seq))

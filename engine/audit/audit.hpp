@@ -31,6 +31,7 @@
 #pragma once
 
 #include <cstdint>
+#include <functional>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -91,6 +92,13 @@ struct AuditOptions {
   std::size_t max_chain_findings = 1000;
   WhatIf what_if;        // when any() is set: a second replay with these changes, totals side by side
   bool parallel = true;  // check the chain on a second connection in a second thread while replaying
+  // Called for every interval of the selection as it is replayed, in (point,
+  // start, seq) order. `effective` is false for a record that a later
+  // correction replaces (it is then not part of the log's totals).
+  std::function<void(const LoggedInterval&, const IntervalReplay&, bool effective)> observe;
+  // Called now and then while replaying: intervals done, intervals in the
+  // selection (counted first when this is set). Last call: done == total.
+  std::function<void(std::int64_t done, std::int64_t total)> progress;
 };
 
 struct AuditResult {
