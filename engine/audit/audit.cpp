@@ -260,6 +260,10 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
       res.V_b_um3 += iv.V_b_um3;
       res.E_J += iv.E_J;
     }
+    if (iv.corrects_seq == 0) {
+      res.V_b_um3_as_recorded += iv.V_b_um3;
+      res.E_J_as_recorded += iv.E_J;
+    }
     if (iv.point != cur_point) {
       cur_point = iv.point;
       have_prev = false;

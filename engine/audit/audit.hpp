@@ -84,6 +84,18 @@ struct Contract {
 [[nodiscard]] Contract parse_contract(std::string_view text, std::string_view source);
 [[nodiscard]] Contract load_contract(const std::string& path);
 
+// A correction set of the log (schema/003): what-if results written as new
+// interval records that name the records they replace. Totals over the
+// correcting intervals in the selection.
+struct CorrectionSetSummary {
+  std::int64_t seq = 0;               // the correction_set record
+  std::string point, reason, change;  // change: what was recomputed differently ("base_p 101560 Pa; method detail")
+  std::int64_t created_utc_s = 0, from_utc_s = 0, to_utc_s = 0;
+  std::int64_t intervals = 0;
+  std::int64_t V_b_um3_replaced = 0, E_J_replaced = 0;    // the records the set replaces
+  std::int64_t V_b_um3_corrected = 0, E_J_corrected = 0;  // the set's own records
+};
+
 struct AuditOptions {
   Selection selection;
   std::optional<Contract> contract;
@@ -109,6 +121,10 @@ struct AuditResult {
   std::string head_hash_hex;
   // The log's own totals (every interval that is not corrected) in the selection.
   std::int64_t V_b_um3 = 0, E_J = 0;
+  // The totals as first recorded (every interval that is not itself a
+  // correction), and the correction sets; with no correction both equal V_b_um3 / E_J.
+  std::int64_t V_b_um3_as_recorded = 0, E_J_as_recorded = 0;
+  std::vector<CorrectionSetSummary> corrections;
   std::vector<std::pair<LoggedInterval, IntervalReplay>> over_bar;  // at most 100 intervals missing the bar, for the report
   std::int64_t over_bar_total = 0;
   bool what_if_run = false;
