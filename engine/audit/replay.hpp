@@ -124,6 +124,9 @@ struct WhatIf {
   [[nodiscard]] bool any() const noexcept { return method || base_T_K || base_p_Pa || analysis_seq; }
 };
 
+// Adds one replayed interval to running totals.
+void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalReplay& r) noexcept;
+
 // Reads a log's configurations and analyses once, then replays intervals.
 class Replayer {
  public:
