@@ -293,5 +293,30 @@ TEST_F(CorrectTest, AlteredSetsAreFound) {
   EXPECT_TRUE(chain);
 }
 
+// A log written before correction sets existed (schema version 2) is read as
+// it is -- head, chain, audit -- and upgraded only when opened for writing.
+TEST_F(CorrectTest, ALogOfSchemaVersionTwoIsReadAndThenUpgraded) {
+  ASSERT_EQ(testing::run_shell(file, "DROP TABLE correction_set; DROP INDEX interval_corrects; DROP TRIGGER schema_version_no_delete; "
+                                     "DELETE FROM schema_version WHERE version = 3"),
+            0);
+  {
+    record::Log log(file, {record::OpenMode::read_only});
+    EXPECT_EQ(log.schema_version(), 2);
+    EXPECT_EQ(log.head_seq(), head_before);
+    const auto v = record::verify_log(log);
+    EXPECT_TRUE(v.findings.empty());
+    EXPECT_EQ(v.records, head_before);
+  }
+  const auto r = audit();
+  expect_clean(r);
+  EXPECT_TRUE(r.corrections.empty());
+  auto req = request();
+  req.change.base_p_Pa = 101560.0;
+  const auto out = audit::write_correction_set(file, req, test_methods());  // opens for writing: upgrades to 3
+  EXPECT_EQ(q("SELECT max(version) FROM schema_version"), 3);
+  EXPECT_EQ(out.set.intervals, 24 * 60);
+  expect_clean(audit());
+}
+
 }  // namespace
 }  // namespace zcorr
