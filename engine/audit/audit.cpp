@@ -384,7 +384,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
                "the recomputed Z_f, Z_b, C, base volume or energy differs from the log by more than " + num(opt.tolerance_ppm) +
                    " ppm (volume and energy at stake = recomputed - logged)");
     }
-  });
+  }, &corrected);
   runs.close_all();
   if (opt.progress) opt.progress(progress_done, progress_done);
   if (opt.what_if.any()) {
@@ -393,7 +393,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     Replayer w(log, what_if_methods, {}, opt.what_if);
     w.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
       if (!corrected.count(iv.seq)) add_to_totals(res.what_if, iv, r);
-    });
+    }, &corrected);
     res.what_if_run = true;
   }
 

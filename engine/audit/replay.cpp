@@ -254,7 +254,10 @@ void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalRepl
   if (r.worst_ppm() > recalculation_bar_ppm) ++t.over_bar;
 }
 
-void Replayer::run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit) {
+void Replayer::run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit,
+                   const std::set<std::int64_t>* replaced) {
+  IntervalReplay skipped;
+  skipped.why_not = "replaced by a correction";
   record::Stmt s(log_.db(), "SELECT " + logged_interval_columns() +
                                 " FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3"
                                 " ORDER BY point, start_utc_s, seq");
@@ -264,6 +267,10 @@ void Replayer::run(const Selection& sel, const std::function<void(const LoggedIn
   LoggedInterval iv;
   while (s.step()) {
     read_logged_interval(s, iv);
+    if (replaced && replaced->count(iv.seq)) {
+      visit(iv, skipped);
+      continue;
+    }
     const IntervalReplay r = replay(iv);
     add_to_totals(totals_, iv, r);
     visit(iv, r);
