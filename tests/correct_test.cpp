@@ -10,6 +10,7 @@
 #include "audit/audit.hpp"
 #include "audit/correct.hpp"
 #include "io/input_error.hpp"
+#include "record/quantities.hpp"
 #include "record/verify.hpp"
 #include "support/record_fixture.hpp"
 
@@ -158,6 +159,21 @@ TEST_F(CorrectTest, TheAnalysisOfTheMorningForTheAfternoon) {
   EXPECT_EQ(after.V_b_um3_as_recorded, whole_before.V_b_um3);
   EXPECT_EQ(after.V_b_um3 - after.V_b_um3_as_recorded, out.set.V_b_um3_corrected - out.set.V_b_um3_replaced);
   EXPECT_EQ(after.E_J - after.E_J_as_recorded, out.set.E_J_corrected - out.set.E_J_replaced);
+  // Hourly records stay as recorded; their corrected sums differ only in the corrected hours.
+  {
+    record::Log log(file, {record::OpenMode::read_only});
+    const auto hours = record::read_quantities(log, "TEST-1", "hour");
+    ASSERT_FALSE(hours.empty());
+    std::int64_t delta = 0;
+    for (const auto& h : hours) {
+      ASSERT_TRUE(h.corrected);
+      const bool inside = h.start_utc_s >= from && h.end_utc_s <= to;
+      if (!inside) EXPECT_EQ(h.V_b_um3_corrected, h.V_b_um3) << h.start_utc_s;
+      if (inside) EXPECT_NE(h.E_J_corrected, h.E_J) << h.start_utc_s;
+      delta += h.V_b_um3_corrected - h.V_b_um3;
+    }
+    EXPECT_EQ(delta, out.set.V_b_um3_corrected - out.set.V_b_um3_replaced);
+  }
   // An audit of a range outside the set sees no correction there.
   audit::AuditOptions morning;
   morning.selection.to_utc_s = t0 + 6 * 3600;

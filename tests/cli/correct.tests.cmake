@@ -39,7 +39,10 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   zcorr_cli_test(NAME correct_audit_contract ARGS audit --db ${CORR_DB} --contract ${CORR_DIR}/contract.txt MATCH "nothing found")
   zcorr_cli_test(NAME correct_audit_json ARGS audit --db ${CORR_DB} --format json MATCH "\"correction_sets\": \\[[^]]*\"change\": \"base_p 101560 Pa\"")
   zcorr_cli_test(NAME correct_verify ARGS verify --db ${CORR_DB} MATCH "clean")
-  set_tests_properties(cli.correct_audit cli.correct_audit_contract cli.correct_audit_json cli.correct_verify
+  # Daily records as recorded, beside the corrected sums (the first contract day of the demo).
+  zcorr_cli_test(NAME correct_quantities ARGS quantities --db ${CORR_DB} --period day --format csv
+                 MATCH "V_b_m3_corrected,E_MJ_corrected,mass_kg_corrected.HF-1,day,2026-03-02,.*,1938787.938135,0,19[0-9]+\\.[0-9]+,")
+  set_tests_properties(cli.correct_audit cli.correct_audit_contract cli.correct_audit_json cli.correct_verify cli.correct_quantities
                        PROPERTIES FIXTURES_REQUIRED "cli_correct_copy;cli_corrected")
 
   # The progress bar: drawn on a terminal, absent when standard error is a file.
