@@ -334,5 +334,20 @@ TEST_F(CorrectTest, ALogOfSchemaVersionTwoIsReadAndThenUpgraded) {
   expect_clean(audit());
 }
 
+// Correcting intervals that no set accounts for (here the set record was
+// deleted) are found, beside the removed record itself.
+TEST_F(CorrectTest, ACorrectionWithoutItsSetIsFound) {
+  auto req = request();
+  req.change.base_p_Pa = 101560.0;
+  const auto out = audit::write_correction_set(file, req, test_methods());
+  ASSERT_EQ(testing::run_shell(file, "DROP TRIGGER correction_set_no_delete; DELETE FROM correction_set WHERE seq = " +
+                                         std::to_string(out.set.seq)),
+            0);
+  const auto v = verify();
+  bool orphan = false;
+  for (const auto& f : v.findings) orphan |= f.kind == "bad_correction" && f.table == "interval" && f.seq == out.first_seq + 2;
+  EXPECT_TRUE(orphan);  // first_seq is the correcting configuration, then its event, then the intervals
+}
+
 }  // namespace
 }  // namespace zcorr
