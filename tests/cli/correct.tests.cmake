@@ -49,4 +49,10 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   add_test(NAME cli.audit_progress_on_terminal
            COMMAND sh -c "script -qec '$<TARGET_FILE:zcorr> audit --db ${CORR_DB} --format csv' /dev/null | grep -a -q 'audit \\[' && $<TARGET_FILE:zcorr> audit --db ${CORR_DB} --format csv 2>${CORR_DIR}/progress.err >/dev/null; test ! -s ${CORR_DIR}/progress.err")
   set_tests_properties(cli.audit_progress_on_terminal PROPERTIES FIXTURES_REQUIRED "cli_correct_copy;cli_corrected")
+
+  # SIGKILL during `zcorr correct`: the log holds no set or a whole one, never a part.
+  add_test(NAME cli.correct_killed
+           COMMAND bash ${CMAKE_CURRENT_SOURCE_DIR}/cli/kill_correct.sh $<TARGET_FILE:zcorr> ${CORR_DIR}/kill ${CLI_DATA}/point.conf
+                   ${CLI_DATA}/analyses.csv)
+  set_tests_properties(cli.correct_killed PROPERTIES PASS_REGULAR_EXPRESSION "never a part of one")
 endif()
