@@ -327,7 +327,14 @@ TEST(RecordVerify, CorrectionsNameAnEarlierRecordOfTheirTable) {
   }
   Log log(p, {OpenMode::read_only});
   auto r = verify_log(log);
-  ASSERT_EQ(r.findings.size(), 1u);
+  // The correction naming a record that does not exist, then both
+  // corrections together: correcting intervals come with a correction set
+  // (schema/003), and these two were written without one.
+  ASSERT_EQ(r.findings.size(), 2u);
   EXPECT_EQ(r.findings[0].kind, "bad_correction");
   EXPECT_EQ(r.findings[0].seq, r.last_seq);
+  EXPECT_EQ(r.findings[1].kind, "bad_correction");
+  EXPECT_EQ(r.findings[1].seq, r.last_seq - 1);
+  EXPECT_NE(r.findings[1].detail.find("2 correcting interval(s)"), std::string::npos) << r.findings[1].detail;
+  EXPECT_NE(r.findings[1].detail.find("no correction set"), std::string::npos) << r.findings[1].detail;
 }
