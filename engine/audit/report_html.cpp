@@ -263,7 +263,7 @@ void legend(std::ostream& o, const std::vector<LegendItem>& items) {
     else
       o << "<rect class=\"" << it.cls << "\" x=\"" << x + 6 << "\" y=\"7\" width=\"10\" height=\"12\"/>";
     o << "<text x=\"" << x + 28 << "\" y=\"18\">" << esc(it.label) << "</text>";
-    x += 40 + 6.2 * static_cast<double>(it.label.size());
+    x += 44 + 6.9 * static_cast<double>(it.label.size());
   }
   o << "</g>";
 }
@@ -324,7 +324,7 @@ void deviation_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
     const double x = ax.x(static_cast<double>(s.bucket_start(i)) + static_cast<double>(s.width_s) / 2);
     if (b.replayed > b.not_comparable) {
       // Zero and sub-floor deviations get a short stub so the bucket still shows as recomputed.
-      const double yy = std::min(y(b.worst_ppm), y0 - 2);
+      const double yy = std::min(y(b.worst_ppm), y0 - 3);
       (b.over_bar ? over : within) << 'M' << svg_num(x) << ' ' << svg_num(y0) << 'V' << svg_num(yy);
     }
     if (b.not_comparable) nc << 'M' << svg_num(x) << ' ' << svg_num(m_top) << 'v' << 10;
@@ -334,6 +334,9 @@ void deviation_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
   if (!over.str().empty())
     o << "<path class=\"dev-over\" stroke-width=\"" << svg_num(std::max(sw, 2.0)) << "\" d=\"" << over.str() << "\"/>";
   if (!nc.str().empty()) o << "<path class=\"dev-nc\" stroke-width=\"" << svg_num(std::max(sw, 2.0)) << "\" d=\"" << nc.str() << "\"/>";
+  if (s.total.replayed > s.total.not_comparable && worst < std::pow(10.0, ppm_floor_decade))
+    o << "<text class=\"plot-note\" x=\"" << m_left + plot_w / 2 << "\" y=\"" << svg_num(y0 - 14)
+      << "\" text-anchor=\"middle\">every recomputed interval matches the log to below 0.0001 ppm</text>";
   const double yb = y(recalculation_bar_ppm);
   o << "<line class=\"bar\" x1=\"" << m_left << "\" x2=\"" << m_left + plot_w << "\" y1=\"" << svg_num(yb) << "\" y2=\""
     << svg_num(yb) << "\"/><text class=\"bar-label\" x=\"" << m_left + plot_w - 4 << "\" y=\"" << svg_num(yb - 5)
@@ -439,7 +442,16 @@ font:14px/1.45 system-ui,-apple-system,"Segoe UI",Roboto,"DejaVu Sans",sans-seri
 h1{font-size:22px;margin:0 0 6px;color:var(--accent)}
 h2{font-size:17px;margin:26px 0 8px;padding-bottom:3px;border-bottom:2px solid var(--accent)}
 h3{font-size:15px;margin:18px 0 6px}
-code,.mono{font-family:"DejaVu Sans Mono",Menlo,Consolas,monospace;font-size:12.5px;overflow-wrap:anywhere}
+code,.mono{font-family:"DejaVu Sans Mono",Menlo,Consolas,monospace;font-size:12.5px}
+dd.mono,h1 code{overflow-wrap:anywhere}
+.scroll{overflow-x:auto}
+td.kind{white-space:nowrap}
+table.findings{font-size:12.5px}table.findings th{white-space:normal;vertical-align:bottom}
+table.findings td,table.findings th{padding-left:6px;padding-right:6px}
+table.findings tr.finding td{border-bottom:none;padding-bottom:1px}
+table.findings tr.detail td{padding-top:0;color:#34444e;font-size:12.5px}
+table.findings tbody.finding-group:nth-of-type(even) td{background:#f4f7f8}
+table.findings tbody.finding-group{break-inside:avoid}
 dl.meta{display:grid;grid-template-columns:max-content 1fr;gap:2px 16px;margin:8px 0 12px}
 dl.meta dt{color:var(--muted)}dl.meta dd{margin:0}
 nav{font-size:13px;margin:6px 0 10px}nav a{color:var(--accent);margin-right:14px;text-decoration:none}
@@ -453,11 +465,12 @@ th,td{padding:4px 9px;border-bottom:1px solid var(--rule);text-align:left;vertic
 th{background:var(--band);font-weight:600;white-space:nowrap}
 td.n,th.n{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
 td.t{white-space:nowrap;font-variant-numeric:tabular-nums}
-tbody tr:nth-child(even) td{background:#f4f7f8}
+tbody:not(.finding-group) tr:nth-child(even) td{background:#f4f7f8}
 table.wide{width:100%}
 tr.sev-critical td:first-child{border-left:5px solid var(--crit)}
 tr.sev-warning td:first-child{border-left:5px solid var(--warn)}
 tr.sev-info td:first-child{border-left:5px solid var(--info)}
+@media print{tr.sev-critical td:first-child,tr.sev-warning td:first-child,tr.sev-info td:first-child{print-color-adjust:exact;-webkit-print-color-adjust:exact}}
 .sev{font-weight:600}.sev.critical{color:var(--crit)}.sev.warning{color:var(--warn)}.sev.info{color:var(--info)}
 p.none{font-style:italic;color:var(--muted)}
 p.small,figcaption{font-size:12.5px;color:var(--muted)}
@@ -474,11 +487,12 @@ svg .dev-over{stroke:var(--crit);fill:none}svg rect.dev-over{fill:var(--crit);st
 svg .dev-nc{stroke:#d08300;fill:none}svg rect.dev-nc{fill:#d08300;stroke:none}
 svg .bar{stroke:var(--crit);stroke-width:1.5;stroke-dasharray:7 4}
 svg .bar-label{fill:var(--crit);font-size:11.5px}
+svg .plot-note{fill:var(--ok);font-size:12.5px}
 svg .v-logged{stroke:#1d5f8a;stroke-width:2;fill:none}
 svg .v-recomp{stroke:#e08a1e;stroke-width:1.6;stroke-dasharray:5 4;fill:none}
 svg .v-asrec{stroke:#9aa3a8;stroke-width:4;fill:none;opacity:.8}
 footer{margin-top:30px;padding-top:8px;border-top:1px solid var(--rule);font-size:12px;color:var(--muted)}
-@media print{body{max-width:none;padding:0;background:#fff;font-size:10.5pt}nav{display:none}
+@media print{body{max-width:none;padding:0;background:#fff;font-size:10.5pt}nav{display:none}.scroll{overflow:visible}
 h2{break-after:avoid}thead{display:table-header-group}tr{break-inside:avoid}figure{border:none;padding:0}
 tbody tr:nth-child(even) td{background:none}}
 )css";
@@ -559,7 +573,7 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
   o << "</section>";
 
   if (!r.corrections.empty()) {
-    o << "<section id=\"corrections\"><h2>Correction sets</h2><table class=\"wide\"><thead><tr><th class=\"n\">seq</th><th>point</th>"
+    o << "<section id=\"corrections\"><h2>Correction sets</h2><div class=\"scroll\"><table class=\"wide\"><thead><tr><th class=\"n\">seq</th><th>point</th>"
          "<th>created</th><th>from</th><th>to</th><th class=\"n\">intervals</th><th>reason</th><th>change</th>"
          "<th class=\"n\">V_b replaced, m\u00b3</th><th class=\"n\">V_b corrected, m\u00b3</th><th class=\"n\">\u0394V_b, m\u00b3</th>"
          "<th class=\"n\">E replaced, MJ</th><th class=\"n\">E corrected, MJ</th><th class=\"n\">\u0394E, MJ</th></tr></thead><tbody>";
@@ -571,7 +585,7 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
         << "</td><td class=\"n\">" << reg(c.V_b_um3_corrected - c.V_b_um3_replaced) << "</td><td class=\"n\">" << reg(c.E_J_replaced)
         << "</td><td class=\"n\">" << reg(c.E_J_corrected) << "</td><td class=\"n\">" << reg(c.E_J_corrected - c.E_J_replaced)
         << "</td></tr>";
-    o << "</tbody></table></section>";
+    o << "</tbody></table></div></section>";
   }
 }
 
@@ -581,22 +595,24 @@ void findings_section(std::ostream& o, const AuditResult& r) {
     o << "<p class=\"none\">The audit found nothing: no finding of any kind in the selection.</p></section>";
     return;
   }
-  o << "<table class=\"findings wide\"><thead><tr><th class=\"n\">#</th><th>kind</th><th>severity</th><th>point</th><th>from</th>"
-       "<th>to</th><th class=\"n\">intervals</th><th class=\"n\">seq</th><th class=\"n\">V_b at stake, m\u00b3</th>"
-       "<th class=\"n\">E at stake, MJ</th><th class=\"n\">worst, ppm</th><th>detail</th></tr></thead><tbody>";
+  // Each finding is a tbody of two rows: its figures, then its detail across the table.
+  o << "<div class=\"scroll\"><table class=\"findings wide\"><thead><tr><th class=\"n\">#</th><th>kind</th><th>severity</th>"
+       "<th>point</th><th>from</th><th>to</th><th class=\"n\">intervals</th><th class=\"n\">seq</th>"
+       "<th class=\"n\">V_b at stake, m\u00b3</th><th class=\"n\">E at stake, MJ</th><th class=\"n\">worst, ppm</th></tr></thead>";
   std::size_t no = 0;
   for (const auto& f : r.findings) {
     const std::string sev(severity_name(f.severity));
-    o << "<tr class=\"finding sev-" << sev << "\"><td class=\"n\">" << ++no << "</td><td class=\"mono\">" << esc(kind_name(f.kind))
-      << "</td><td class=\"sev " << sev << "\">" << sev << "</td><td>" << (f.point.empty() ? std::string("\u2014") : esc(f.point))
-      << "</td><td class=\"t\">" << t_or_dash(f.from_utc_s) << "</td><td class=\"t\">" << t_or_dash(f.to_utc_s) << "</td><td class=\"n\">"
-      << f.intervals << "</td><td class=\"n\">" << f.first_seq;
+    o << "<tbody class=\"finding-group\"><tr class=\"finding sev-" << sev << "\"><td class=\"n\">" << ++no
+      << "</td><td class=\"mono kind\">" << esc(kind_name(f.kind)) << "</td><td class=\"sev " << sev << "\">" << sev << "</td><td>"
+      << (f.point.empty() ? std::string("\u2014") : esc(f.point)) << "</td><td class=\"t\">" << t_or_dash(f.from_utc_s)
+      << "</td><td class=\"t\">" << t_or_dash(f.to_utc_s) << "</td><td class=\"n\">" << f.intervals << "</td><td class=\"n\">"
+      << f.first_seq;
     if (f.last_seq != f.first_seq) o << "\u2013" << f.last_seq;
     o << "</td><td class=\"n\">" << num(f.V_b_m3, 6) << "</td><td class=\"n\">" << num(f.E_MJ, 6) << "</td><td class=\"n\">"
-      << (f.kind == Kind::calc_difference ? ppm_text(f.worst_ppm) : std::string("\u2014")) << "</td><td>" << esc(f.detail)
-      << "</td></tr>";
+      << (f.kind == Kind::calc_difference ? ppm_text(f.worst_ppm) : std::string("\u2014")) << "</td></tr><tr class=\"detail sev-"
+      << sev << "\"><td></td><td class=\"detail\" colspan=\"10\">" << esc(f.detail) << "</td></tr></tbody>";
   }
-  o << "</tbody></table></section>";
+  o << "</table></div></section>";
 }
 
 void over_bar_section(std::ostream& o, const AuditResult& r) {
@@ -605,7 +621,7 @@ void over_bar_section(std::ostream& o, const AuditResult& r) {
     o << "<p class=\"none\">No recomputed interval misses the bar.</p></section>";
     return;
   }
-  o << "<table class=\"over-bar wide\"><thead><tr><th class=\"n\">seq</th><th>point</th><th>start</th><th>end</th>"
+  o << "<div class=\"scroll\"><table class=\"over-bar wide\"><thead><tr><th class=\"n\">seq</th><th>point</th><th>start</th><th>end</th>"
        "<th class=\"n\">Z_f logged</th><th class=\"n\">Z_f recomputed</th><th class=\"n\">V_b logged, m\u00b3</th>"
        "<th class=\"n\">V_b recomputed, m\u00b3</th><th class=\"n\">worst, ppm</th></tr></thead><tbody>";
   for (const auto& [iv, rp] : r.over_bar)
@@ -613,7 +629,7 @@ void over_bar_section(std::ostream& o, const AuditResult& r) {
       << "</td><td class=\"t\">" << format_time_utc(iv.end_utc_s) << "</td><td class=\"n\">" << num(iv.Z_f, 9) << "</td><td class=\"n\">"
       << num(rp.Z_f, 9) << "</td><td class=\"n\">" << num(iv.V_b_m3, 6) << "</td><td class=\"n\">" << num(rp.V_b_m3, 6)
       << "</td><td class=\"n\">" << ppm_text(rp.worst_ppm()) << "</td></tr>";
-  o << "</tbody></table>";
+  o << "</tbody></table></div>";
   const auto shown = static_cast<std::int64_t>(r.over_bar.size());
   if (r.over_bar_total > shown)
     o << "<p class=\"small\">The first " << shown << " are listed; " << (r.over_bar_total - shown) << " more miss the bar.</p>";
