@@ -5,8 +5,10 @@
 set -euo pipefail
 # libsqlite3-dev / sqlite3: the interval log (the shell is used by the tamper tests).
 # libssl-dev: OpenSSL libcrypto's SHA-256 for the log's hash chain (engine/record).
+# chromium: headless, for the test that opens `zcorr audit --report` pages in a real browser
+#   (tests/cli/report_chromium.sh); scripts/test.sh configures with ZCORR_REQUIRE_BROWSER=ON.
 pkgs=(g++ cmake make libgtest-dev libbenchmark-dev libboost-dev libcli11-dev nlohmann-json3-dev
-      libsqlite3-dev sqlite3 libssl-dev)
+      libsqlite3-dev sqlite3 libssl-dev chromium)
 missing=()
 for p in "${pkgs[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
