@@ -48,7 +48,41 @@ double opt(const record::Stmt& s, int c) { return s.is_null(c) ? nan_v : s.f64(c
 std::string logged_interval_columns() {
   return "seq, point, config_seq, analysis_seq, start_utc_s, end_utc_s, flow_time_s, alarm_time_s, samples, integration, "
          "p_avg_Pa, T_avg_K, V_ind_m3, V_f_m3, Z_f, Z_b, C, I_m3_Pa_per_K, V_b_m3, Hs_MJ_per_m3, E_MJ, V_f_um3, V_b_um3, "
-         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq";
+         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg";
+}
+
+void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
+  iv.seq = s.i64(0);
+  iv.point = s.text(1);
+  iv.config_seq = s.i64(2);
+  iv.analysis_seq = s.is_null(3) ? 0 : s.i64(3);
+  iv.start_utc_s = s.i64(4);
+  iv.end_utc_s = s.i64(5);
+  iv.flow_time_s = s.i64(6);
+  iv.alarm_time_s = s.i64(7);
+  iv.samples = s.i64(8);
+  iv.integration = s.text(9);
+  iv.p_avg_Pa = opt(s, 10);
+  iv.T_avg_K = opt(s, 11);
+  iv.V_ind_m3 = s.f64(12);
+  iv.V_f_m3 = s.f64(13);
+  iv.Z_f = opt(s, 14);
+  iv.Z_b = opt(s, 15);
+  iv.C = opt(s, 16);
+  iv.I = opt(s, 17);
+  iv.V_b_m3 = s.f64(18);
+  iv.Hs = opt(s, 19);
+  iv.E_MJ = opt(s, 20);
+  iv.V_f_um3 = s.i64(21);
+  iv.V_b_um3 = s.i64(22);
+  iv.V_fault_um3 = s.i64(23);
+  iv.E_J = s.i64(24);
+  iv.flags = s.i64(25);
+  iv.calc_status = s.text(26);
+  iv.method = s.text(27);
+  iv.corrects_seq = s.is_null(28) ? 0 : s.i64(28);
+  iv.rho_f = opt(s, 29);
+  iv.mass_kg = opt(s, 30);
 }
 
 Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if)
@@ -63,6 +97,12 @@ Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions ev
     while (s.step()) {
       for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
       configs_[s.i64(0)] = record::config_from_values(v);
+    }
+    Stmt c(log_.db(), "SELECT seq, corrects_seq FROM point_config WHERE corrects_seq IS NOT NULL ORDER BY seq");
+    while (c.step()) {
+      std::int64_t root = c.i64(1);
+      if (auto it = config_root_.find(root); it != config_root_.end()) root = it->second;  // a correction of a correction
+      config_root_[c.i64(0)] = root;
     }
   }
   {
@@ -114,7 +154,17 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     if (analysis_seq && ait == analyses_.end()) {
       gas_.status = "no_analysis";
     } else if (ait != analyses_.end()) {
+      // The analysis' Hs is stated at the base conditions of the recorded configuration.
+      const auto rit = config_root_.find(iv.config_seq);
+      const auto root = configs_.find(rit == config_root_.end() ? iv.config_seq : rit->second);
+      const bool rebase = std::isfinite(ait->second.Hs) && root != configs_.end() &&
+                          (root->second.base_T_K != cfg.base_T_K || root->second.base_p_Pa != cfg.base_p_Pa);
+      double Z_b_stated = nan_v;
+      if (rebase) Z_b_stated = record::prepare_gas(*m, ait->second.x, ait->second.Hs, ait->second.seq, root->second, eval_).Z_b;
       gas_ = record::prepare_gas(*m, ait->second.x, ait->second.Hs, ait->second.seq, cfg, eval_);
+      if (rebase && gas_.usable)
+        gas_.Hs_MJ_per_m3 = ait->second.Hs * (cfg.base_p_Pa / root->second.base_p_Pa) * (root->second.base_T_K / cfg.base_T_K) *
+                            (Z_b_stated / gas_.Z_b);
     }
   }
 
@@ -147,18 +197,31 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   // can be many ppm of V_conv: then the base volume comes from the logged
   // integral value as for per_sample, and C is not compared.
   const bool via_integral = iv.integration == "per_sample" || iv.V_fault_um3 != 0;
+  r.Fp = c.Fp;
+  r.Ft = c.Ft;
+  r.Fz = c.Fz;
+  r.Hs = c.Hs_MJ_per_m3;
+  r.rho_f = c.rho_f_kg_per_m3;
   if (via_integral && gas_.usable) {
     double I = std::isfinite(iv.I) ? iv.I : 0.0;
+    double mass = iv.mass_kg;
     const bool z_f_changes = what_if_.method || what_if_.analysis_seq;
     if (z_f_changes && std::isfinite(iv.Z_f) && std::isfinite(c.Z_f) && c.Z_f != 0) I *= iv.Z_f / c.Z_f;
+    if (z_f_changes)
+      mass = std::isfinite(iv.rho_f) && std::isfinite(c.rho_f_kg_per_m3) && iv.rho_f != 0 ? mass * c.rho_f_kg_per_m3 / iv.rho_f : nan_v;
+    r.I = std::isfinite(iv.I) ? I : nan_v;
     r.V_b_m3 = I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
     r.C = V_conv > 0 && I > 0 ? r.V_b_m3 / V_conv : c.C;
     r.E_MJ = std::isfinite(gas_.Hs_MJ_per_m3) ? r.V_b_m3 * gas_.Hs_MJ_per_m3 : nan_v;
+    r.mass_kg = mass;
   } else {
+    r.I = c.I_m3_Pa_per_K;
     r.V_b_m3 = c.V_b_m3;
     r.C = c.C;
     r.E_MJ = c.E_MJ;
+    r.mass_kg = c.mass_kg;
   }
+  r.mass_mg = record::to_register(r.mass_kg, record::mass_quantum_kg);
   if (!gas_.usable) r.E_MJ = iv.E_MJ == 0 ? 0.0 : nan_v;  // nothing converted
   r.V_b_um3 = record::to_register(r.V_b_m3, record::volume_quantum_m3);
   r.E_J = record::to_register(r.E_MJ, 1e-6);
@@ -181,35 +244,7 @@ void Replayer::run(const Selection& sel, const std::function<void(const LoggedIn
   s.bind(3, sel.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));
   LoggedInterval iv;
   while (s.step()) {
-    iv.seq = s.i64(0);
-    iv.point = s.text(1);
-    iv.config_seq = s.i64(2);
-    iv.analysis_seq = s.is_null(3) ? 0 : s.i64(3);
-    iv.start_utc_s = s.i64(4);
-    iv.end_utc_s = s.i64(5);
-    iv.flow_time_s = s.i64(6);
-    iv.alarm_time_s = s.i64(7);
-    iv.samples = s.i64(8);
-    iv.integration = s.text(9);
-    iv.p_avg_Pa = opt(s, 10);
-    iv.T_avg_K = opt(s, 11);
-    iv.V_ind_m3 = s.f64(12);
-    iv.V_f_m3 = s.f64(13);
-    iv.Z_f = opt(s, 14);
-    iv.Z_b = opt(s, 15);
-    iv.C = opt(s, 16);
-    iv.I = opt(s, 17);
-    iv.V_b_m3 = s.f64(18);
-    iv.Hs = opt(s, 19);
-    iv.E_MJ = opt(s, 20);
-    iv.V_f_um3 = s.i64(21);
-    iv.V_b_um3 = s.i64(22);
-    iv.V_fault_um3 = s.i64(23);
-    iv.E_J = s.i64(24);
-    iv.flags = s.i64(25);
-    iv.calc_status = s.text(26);
-    iv.method = s.text(27);
-    iv.corrects_seq = s.is_null(28) ? 0 : s.i64(28);
+    read_logged_interval(s, iv);
     const IntervalReplay r = replay(iv);
     ++totals_.intervals;
     if (r.replayed) {

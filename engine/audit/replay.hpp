@@ -41,6 +41,7 @@
 #include "record/config.hpp"
 #include "record/interval_calc.hpp"
 #include "record/log.hpp"
+#include "record/sql.hpp"
 
 namespace zcorr::audit {
 
@@ -69,6 +70,7 @@ struct LoggedInterval {
   std::int64_t V_f_um3 = 0, V_b_um3 = 0, V_fault_um3 = 0, E_J = 0, flags = 0;
   std::string calc_status, method;
   std::int64_t corrects_seq = 0;  // 0 = not a correction
+  double rho_f = nan_v, mass_kg = nan_v;
 };
 
 struct GasRecord {
@@ -85,6 +87,11 @@ struct IntervalReplay {
   std::string why_not;  // when not replayed
   double Z_f = nan_v, Z_b = nan_v, C = nan_v, V_b_m3 = 0, E_MJ = nan_v;
   std::int64_t V_b_um3 = 0, E_J = 0;
+  // What a correcting record needs besides: the integral value (rescaled
+  // when Z_f changes), the factors at the averages, the calorific value
+  // used, line density and mass.
+  double I = nan_v, Fp = nan_v, Ft = nan_v, Fz = nan_v, Hs = nan_v, rho_f = nan_v, mass_kg = nan_v;
+  std::int64_t mass_mg = 0;
   std::int64_t flags = 0;  // record::iflag bits of the recomputation (expanded_range, extrapolated, calc_failed, ...)
   std::string calc_status; // the method's status at the averages ('ok', 'out_of_range', 'ok;range=expanded', ...)
   double dZ_f_ppm = nan_v, dZ_b_ppm = nan_v, dC_ppm = nan_v, dV_b_ppm = nan_v, dE_ppm = nan_v;
@@ -102,9 +109,14 @@ struct ReplayTotals {
 // Z_f(what-if) at the averages when the method or the analysis changes
 // (exact for average_then_correct, first order for per_sample); it does not
 // depend on the base conditions. Energy is the what-if base volume times the
-// analysis' Hs as logged (Hs stated at the configured base conditions; with
-// another base condition and an analysis that gives Hs, the energy figure
-// is therefore not re-based -- a known limit). Not written to the log.
+// calorific value per base volume: an analysis' Hs is stated at the base
+// conditions of the configuration it was recorded under (the uncorrected
+// configuration), so at other base conditions it is re-based by the ratio of
+// the gas's molar densities, p_b / (Z_b T_b), both by the line method; the
+// energy then does not depend on the base conditions (only the volume
+// does). The combustion reference temperature of Hs is not changed. An
+// analysis without Hs gets it from ISO 6976 at the new base conditions, as
+// the recorder does. zcorr correct writes the result as a correction set.
 struct WhatIf {
   std::optional<std::string> method;
   std::optional<double> base_T_K, base_p_Pa;
@@ -138,6 +150,7 @@ class Replayer {
   EvalOptions eval_;
   WhatIf what_if_;
   std::map<std::int64_t, record::PointConfig> configs_;
+  std::map<std::int64_t, std::int64_t> config_root_;  // a correcting configuration -> the recorded one it goes back to
   std::map<std::int64_t, GasRecord> analyses_;
   std::map<std::string, std::unique_ptr<LineMethod>> methods_;
   // The prepared gas: (method, config, analysis) it belongs to.
@@ -147,7 +160,9 @@ class Replayer {
   ReplayTotals totals_;
 };
 
-// Reads one row of the audit's interval query (for the replay's own use and the tests).
+// The columns of a LoggedInterval, in the order read_logged_interval() reads them.
 [[nodiscard]] std::string logged_interval_columns();
+// Reads a row selected with logged_interval_columns() first.
+void read_logged_interval(const record::Stmt& s, LoggedInterval& iv);
 
 }  // namespace zcorr::audit

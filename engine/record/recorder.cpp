@@ -32,7 +32,7 @@ void Recorder::load_state() {
   {  // the configuration in force
     std::string sql = "SELECT ";
     for (std::size_t i = 0; i < std::size(cols::point_config); ++i) sql += (i ? ", " : "") + std::string(cols::point_config[i]);
-    Stmt s(db, sql + " FROM point_config WHERE point = ? ORDER BY seq DESC LIMIT 1");
+    Stmt s(db, sql + " FROM point_config WHERE point = ? AND corrects_seq IS NULL ORDER BY seq DESC LIMIT 1");
     s.bind(1, std::string_view(cfg_.point));
     if (s.step()) {
       std::vector<Value> v;
@@ -102,7 +102,7 @@ void Recorder::load_state() {
   }
   {  // the analysis in force
     Stmt s(db, "SELECT seq, valid_from_utc_s, Hs_MJ_per_m3" + analysis_columns() +
-                   " FROM gas_analysis WHERE point = ? ORDER BY seq DESC LIMIT 1");
+                   " FROM gas_analysis WHERE point = ? AND corrects_seq IS NULL ORDER BY seq DESC LIMIT 1");
     s.bind(1, std::string_view(cfg_.point));
     if (s.step()) {
       Fractions<double> x{};

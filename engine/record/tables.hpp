@@ -12,8 +12,8 @@
 
 namespace zcorr::record {
 
-enum class Table : std::size_t { log_header, point_config, gas_analysis, interval, event, qtr };
-inline constexpr std::size_t table_count = 6;
+enum class Table : std::size_t { log_header, point_config, gas_analysis, interval, event, qtr, correction_set };
+inline constexpr std::size_t table_count = 7;
 
 namespace cols {
 inline constexpr std::string_view log_header[] = {
@@ -43,11 +43,16 @@ inline constexpr std::string_view qtr[] = {
     "alarm_time_s", "p_avg_Pa", "T_avg_K", "Hs_avg_MJ_per_m3", "V_f_um3", "V_b_um3", "V_fault_um3", "E_J",
     "mass_mg", "cum_V_f_um3", "cum_V_b_um3", "cum_V_fault_um3", "cum_E_J", "cum_mass_mg", "flags", "corrects_seq",
     "correction_reason"};
+inline constexpr std::string_view correction_set[] = {
+    "seq", "point", "created_utc_s", "from_utc_s", "to_utc_s", "reason", "method", "base_T_K", "base_p_Pa",
+    "analysis_seq", "first_seq", "last_seq", "intervals", "V_b_um3_replaced", "E_J_replaced", "V_b_um3_corrected",
+    "E_J_corrected", "engine_version"};
 }  // namespace cols
 
 struct TableInfo {
   std::string_view name;
   std::span<const std::string_view> columns;  // columns[0] is always "seq"
+  int since_version = 1;                      // the schema migration that created the table
 };
 
 inline constexpr std::array<TableInfo, table_count> tables{{
@@ -57,7 +62,13 @@ inline constexpr std::array<TableInfo, table_count> tables{{
     {"interval", cols::interval},
     {"event", cols::event},
     {"qtr", cols::qtr},
+    {"correction_set", cols::correction_set, 3},
 }};
+
+// Whether a log of schema version `version` has the table.
+[[nodiscard]] constexpr bool has_table(int version, Table t) noexcept {
+  return version >= tables[static_cast<std::size_t>(t)].since_version;
+}
 
 [[nodiscard]] constexpr const TableInfo& table_info(Table t) noexcept { return tables[static_cast<std::size_t>(t)]; }
 

@@ -46,7 +46,7 @@ std::string as_text(const Value& v) { return v.index() == 3 ? std::get<std::stri
 
 std::int64_t row_time(const Row& r) {
   const auto& c = table_info(r.table).columns;
-  for (auto name : {"start_utc_s", "time_utc_s", "valid_from_utc_s", "created_utc_s"}) {
+  for (auto name : {"start_utc_s", "time_utc_s", "valid_from_utc_s", "from_utc_s", "created_utc_s"}) {
     auto i = col_index(c, name);
     if (i < c.size()) return as_i64(r.values[i]);
   }
@@ -89,6 +89,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
   std::vector<Cursor> cursors;
   for (std::size_t t = 0; t < table_count; ++t) {
     const auto& info = tables[t];
+    if (!has_table(out.schema_version, static_cast<Table>(t))) continue;  // an older log: no such table yet
     std::string sql = "SELECT ";
     for (auto c : info.columns) sql += std::string(c) + ", ";
     sql += "prev_hash, hash FROM " + std::string(info.name) + " ORDER BY seq";
@@ -144,7 +145,19 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
   // A correction must name an earlier record of its own table.
   std::array<Stmt, table_count> exists;
   for (std::size_t t = 0; t < table_count; ++t)
-    exists[t] = Stmt(db, "SELECT 1 FROM " + std::string(tables[t].name) + " WHERE seq = ?");
+    if (has_table(out.schema_version, static_cast<Table>(t)))
+      exists[t] = Stmt(db, "SELECT 1 FROM " + std::string(tables[t].name) + " WHERE seq = ?");
+  // A correction set's totals against the correcting intervals written since
+  // the set before it (a set's records come just before it, in one transaction).
+  struct SetSums {
+    std::int64_t first = 0, n = 0, V_b = 0, E = 0, V_b_replaced = 0, E_replaced = 0;
+  } set_sums;
+  Stmt replaced_q(db, "SELECT V_b_um3, E_J FROM interval WHERE seq = ?");
+  const auto& cc = cols::correction_set;
+  const std::size_t c_first = col_index(cc, "first_seq"), c_last = col_index(cc, "last_seq"), c_n = col_index(cc, "intervals"),
+                    c_vbr = col_index(cc, "V_b_um3_replaced"), c_er = col_index(cc, "E_J_replaced"),
+                    c_vbc = col_index(cc, "V_b_um3_corrected"), c_ec = col_index(cc, "E_J_corrected"),
+                    c_reason = col_index(cc, "reason");
   auto check_correction = [&](const Row& r) {
     const auto& c = table_info(r.table).columns;
     const auto i = col_index(c, "corrects_seq");
@@ -163,7 +176,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
 
   auto check_totals = [&](const Row& r) {
     if (r.table == Table::interval) {
-      if (!std::holds_alternative<Null>(r.values[i_corr])) return;  // corrections are totalled by the audit
+      const bool correction = !std::holds_alternative<Null>(r.values[i_corr]);
       const auto vf = as_i64(r.values[i_rvf]), vb = as_i64(r.values[i_rvb]), vx = as_i64(r.values[i_rvx]),
                  e = as_i64(r.values[i_re]), m = as_i64(r.values[i_rm]);
       auto q = [](std::optional<double> v, double quantum) { return v ? std::llround(*v / quantum) : 0LL; };
@@ -177,6 +190,19 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
         report(r, "register_mismatch", "mass_mg does not equal mass_kg at 1e-6 kg");
       else if (vx < 0 || vx > vf || vb < 0)
         report(r, "register_mismatch", "V_fault_um3 outside [0, V_f_um3] or negative V_b_um3");
+      if (correction) {  // not in the recorded running totals; counted for its correction set
+        if (set_sums.n == 0) set_sums.first = r.seq;
+        ++set_sums.n;
+        set_sums.V_b += vb;
+        set_sums.E += e;
+        replaced_q.bind(1, as_i64(r.values[i_corr]));
+        if (replaced_q.step()) {
+          set_sums.V_b_replaced += replaced_q.i64(0);
+          set_sums.E_replaced += replaced_q.i64(1);
+        }
+        replaced_q.reset();
+        return;
+      }
       auto& p = points[as_text(r.values[i_point])];
       const auto s = as_i64(r.values[i_start]), en = as_i64(r.values[i_end]);
       p.cum.intervals++;
@@ -205,6 +231,23 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
         d = "intervals since the previous " + std::string(hour ? "hourly" : "daily") + " record lie outside its period";
       if (!d.empty()) report(r, "total_mismatch", d);
       s = Sums{};
+    } else if (r.table == Table::correction_set) {
+      std::string d;
+      const auto first = as_i64(r.values[c_first]), last = as_i64(r.values[c_last]);
+      if (as_text(r.values[c_reason]).empty()) d = "a correction set without a reason";
+      else if (first < 1 || first > last || last >= r.seq || (set_sums.n > 0 && set_sums.first < first))
+        d = "its record range " + std::to_string(first) + ".." + std::to_string(last) + " does not hold the corrections before it";
+      else if (as_i64(r.values[c_n]) != set_sums.n)
+        d = "intervals = " + std::to_string(as_i64(r.values[c_n])) + ", the log has " + std::to_string(set_sums.n) +
+            " correcting intervals before it";
+      else if (as_i64(r.values[c_vbc]) != set_sums.V_b || as_i64(r.values[c_ec]) != set_sums.E)
+        d = "corrected totals V_b_um3 = " + std::to_string(as_i64(r.values[c_vbc])) + ", E_J = " + std::to_string(as_i64(r.values[c_ec])) +
+            "; its intervals sum to " + std::to_string(set_sums.V_b) + ", " + std::to_string(set_sums.E);
+      else if (as_i64(r.values[c_vbr]) != set_sums.V_b_replaced || as_i64(r.values[c_er]) != set_sums.E_replaced)
+        d = "replaced totals V_b_um3 = " + std::to_string(as_i64(r.values[c_vbr])) + ", E_J = " + std::to_string(as_i64(r.values[c_er])) +
+            "; the records it replaces sum to " + std::to_string(set_sums.V_b_replaced) + ", " + std::to_string(set_sums.E_replaced);
+      if (!d.empty()) report(r, "total_mismatch", d);
+      set_sums = SetSums{};
     }
   };
 
