@@ -103,6 +103,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
     if (!o.from.empty()) sel += (sel.empty() ? "" : ", ") + std::string("intervals ending after ") + o.from;
     if (!o.to.empty()) sel += (sel.empty() ? "" : ", ") + std::string("intervals starting before ") + o.to;
     h.selection = sel.empty() ? "the whole log" : sel;
+    h.tolerance_ppm = o.tolerance_ppm;
     std::string wi;
     if (!o.wi_method.empty()) wi += "method " + o.wi_method;
     if (!o.wi_base_T.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base temperature ") + o.wi_base_T;
@@ -125,6 +126,10 @@ int run_audit_cmd(const AuditCliOptions& o) {
     std::error_code ec;
     if (report_created) std::filesystem::remove(o.report, ec);
     return exit_unusable;
+  } catch (...) {
+    std::error_code ec;
+    if (report_created) std::filesystem::remove(o.report, ec);
+    throw;
   }
   if (!o.report.empty()) write_report(r);
   const ReplayTotals& t = r.replay;

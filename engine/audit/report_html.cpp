@@ -683,6 +683,8 @@ void write_html_report(std::ostream& out, const AuditResult& r, const ReportColl
        << "<dt>head hash</dt><dd class=\"mono\">" << esc(r.head_hash_hex) << "</dd>"
        << "<dt>chained records</dt><dd>" << r.records << "</dd>"
        << "<dt>selection</dt><dd>" << esc(h.selection.empty() ? std::string("the whole log") : h.selection) << "</dd>"
+       << "<dt>tolerance</dt><dd>calc_difference beyond " << ppm_text(h.tolerance_ppm) << " ppm; the recalculation bar is "
+       << printf_num(recalculation_bar_ppm, 0) << " ppm</dd>"
        << "<dt>produced</dt><dd>" << format_time_utc(h.produced_utc_s) << (h.produced_by.empty() ? "" : " by ") << esc(h.produced_by)
        << "</dd></dl>"
        << "<nav><a href=\"#summary\">Totals</a>" << (r.corrections.empty() ? "" : "<a href=\"#corrections\">Correction sets</a>")

@@ -83,6 +83,7 @@ struct ReportHeader {
   std::string selection;         // in words ("point HF-1, intervals ending after ...", or "the whole log")
   std::string produced_by;       // program and version, e.g. "zcorr 0.1.0"
   std::string what_if;           // the what-if changes in words, when the audit ran one
+  double tolerance_ppm = recalculation_bar_ppm;  // AuditOptions::tolerance_ppm (calc_difference findings)
 };
 
 // The safety note printed in the report.

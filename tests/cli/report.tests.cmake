@@ -40,4 +40,9 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
     set_tests_properties(cli.audit_report_chromium PROPERTIES SKIP_RETURN_CODE 77)
   endif()
   set_tests_properties(cli.audit_report_chromium PROPERTIES DEPENDS cli.demo_week FIXTURES_REQUIRED cli_logs)
+  # A what-if the audit refuses (exit 2) leaves no report file behind either.
+  add_test(NAME cli.audit_report_refused_what_if
+           COMMAND sh -c "rm -f refused.html; $<TARGET_FILE:zcorr> audit --db ${REPORT_LOGS}/demo/hollin-ford.db --what-if-analysis 3 --report refused.html; rc=$?; test $rc -eq 2 && test ! -e refused.html && echo 'exit 2, no report'"
+           WORKING_DIRECTORY ${REPORT_DIR})
+  set_tests_properties(cli.audit_report_refused_what_if PROPERTIES PASS_REGULAR_EXPRESSION "exit 2, no report" DEPENDS cli.demo_week)
 endif()
