@@ -19,6 +19,7 @@
 #include "common.hpp"
 #include "io/input_error.hpp"
 #include "io/units_parse.hpp"
+#include "progress.hpp"
 #include "record/quantities.hpp"
 #include "record/timeutil.hpp"
 
@@ -80,6 +81,8 @@ int run_audit_cmd(const AuditCliOptions& o) {
   if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
   if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
   if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
+
+  ao.progress = stderr_progress("audit");
 
   // --report: the HTML report, fed while the audit replays. The path is tried
   // before the replay (without truncating it), and removed again when the log
@@ -164,6 +167,21 @@ int run_audit_cmd(const AuditCliOptions& o) {
                       {"V_b_m3_what_if", record::decimal(r.what_if.V_b_um3_replayed, 6)},
                       {"E_MJ_logged", record::decimal(r.what_if.E_J_logged, 6)},
                       {"E_MJ_what_if", record::decimal(r.what_if.E_J_replayed, 6)}};
+    j["as_recorded"] = {{"V_b_m3", record::decimal(r.V_b_um3_as_recorded, 6)}, {"E_MJ", record::decimal(r.E_J_as_recorded, 6)}};
+    j["correction_sets"] = nlohmann::json::array();
+    for (const auto& c : r.corrections)
+      j["correction_sets"].push_back({{"seq", c.seq},
+                                      {"point", c.point},
+                                      {"created", t_or_empty(c.created_utc_s)},
+                                      {"from", t_or_empty(c.from_utc_s)},
+                                      {"to", t_or_empty(c.to_utc_s)},
+                                      {"change", c.change},
+                                      {"reason", c.reason},
+                                      {"intervals", c.intervals},
+                                      {"V_b_m3_replaced", record::decimal(c.V_b_um3_replaced, 6)},
+                                      {"V_b_m3_corrected", record::decimal(c.V_b_um3_corrected, 6)},
+                                      {"E_MJ_replaced", record::decimal(c.E_J_replaced, 6)},
+                                      {"E_MJ_corrected", record::decimal(c.E_J_corrected, 6)}});
     j["findings"] = nlohmann::json::array();
     for (const auto& f : r.findings)
       j["findings"].push_back({{"kind", kind_name(f.kind)},
@@ -218,6 +236,17 @@ int run_audit_cmd(const AuditCliOptions& o) {
                 << " m3 what-if (" << record::decimal(r.what_if.V_b_um3_replayed - r.what_if.V_b_um3_logged, 6) << "); energy "
                 << record::decimal(r.what_if.E_J_logged, 6) << " MJ logged, " << record::decimal(r.what_if.E_J_replayed, 6)
                 << " MJ what-if (" << record::decimal(r.what_if.E_J_replayed - r.what_if.E_J_logged, 6) << ")\n";
+    if (!r.corrections.empty()) {
+      std::cout << "corrected  base volume " << record::decimal(r.V_b_um3_as_recorded, 6) << " m3 as recorded, "
+                << record::decimal(r.V_b_um3, 6) << " m3 corrected (" << record::decimal(r.V_b_um3 - r.V_b_um3_as_recorded, 6)
+                << "); energy " << record::decimal(r.E_J_as_recorded, 6) << " MJ as recorded, " << record::decimal(r.E_J, 6)
+                << " MJ corrected (" << record::decimal(r.E_J - r.E_J_as_recorded, 6) << ")\n";
+      for (const auto& c : r.corrections)
+        std::cout << "  correction set seq " << c.seq << ' ' << c.point << ' ' << t_or_empty(c.from_utc_s) << " .. " << t_or_empty(c.to_utc_s)
+                  << ", " << c.intervals << " interval(s): " << c.change << "; V_b " << record::decimal(c.V_b_um3_replaced, 6) << " -> "
+                  << record::decimal(c.V_b_um3_corrected, 6) << " m3, E " << record::decimal(c.E_J_replaced, 6) << " -> "
+                  << record::decimal(c.E_J_corrected, 6) << " MJ\n      reason: " << c.reason << '\n';
+    }
     if (clean) {
       std::cout << "result     nothing found\n";
     } else {

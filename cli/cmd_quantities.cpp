@@ -35,15 +35,19 @@ int run_quantities(const QuantitiesOptions& o) {
   using namespace zcorr::record;
   Log log(o.db, {OpenMode::read_only});
   const auto rows = read_quantities(log, o.point, o.period);
-  const std::vector<std::string> head{"point", "period", "contract_day", "start_utc", "end_utc", "intervals", "flow_time_s", "alarm_time_s",
+  const bool corrected = !rows.empty() && rows.front().corrected;
+  std::vector<std::string> head{"point", "period", "contract_day", "start_utc", "end_utc", "intervals", "flow_time_s", "alarm_time_s",
                                       "p_avg_kPa", "T_avg_degC", "V_f_m3", "V_b_m3", "V_fault_m3", "E_MJ", "mass_kg", "Hs_avg_MJ_per_m3",
                                       "cum_V_b_m3", "flags"};
+  if (corrected) head.insert(head.end(), {"V_b_m3_corrected", "E_MJ_corrected", "mass_kg_corrected"});
   auto fields = [](const QuantityRecord& q) {
-    return std::vector<std::string>{q.point, q.period, q.contract_day, format_time_utc(q.start_utc_s), format_time_utc(q.end_utc_s),
+    auto f = std::vector<std::string>{q.point, q.period, q.contract_day, format_time_utc(q.start_utc_s), format_time_utc(q.end_utc_s),
                                     std::to_string(q.intervals), std::to_string(q.flow_time_s), std::to_string(q.alarm_time_s),
                                     opt_fixed(q.p_avg_Pa, 1e-3, 0, 3), opt_fixed(q.T_avg_K, 1, -273.15, 3), decimal(q.V_f_um3, 6),
                                     decimal(q.V_b_um3, 6), decimal(q.V_fault_um3, 6), decimal(q.E_J, 6), decimal(q.mass_mg, 6),
                                     opt_fixed(q.Hs_avg_MJ_per_m3, 1, 0, 4), decimal(q.cum_V_b_um3, 6), std::to_string(q.flags)};
+    if (q.corrected) f.insert(f.end(), {decimal(q.V_b_um3_corrected, 6), decimal(q.E_J_corrected, 6), decimal(q.mass_mg_corrected, 6)});
+    return f;
   };
   if (o.format == Format::csv) {
     io::write_csv_row(std::cout, head);
@@ -62,7 +66,7 @@ int run_quantities(const QuantitiesOptions& o) {
     std::cout << std::left << std::setw(12) << "point" << std::setw(12) << (o.period == "day" ? "day" : "hour from") << std::right
               << std::setw(7) << "flow h" << std::setw(8) << "alarm s" << std::setw(11) << "p kPa" << std::setw(9) << "T degC"
               << std::setw(19) << "V_f m3" << std::setw(19) << "V_b m3" << std::setw(15) << "fault m3" << std::setw(20) << "energy MJ"
-              << std::setw(9) << "Hs" << "  flags\n";
+              << std::setw(9) << "Hs" << (corrected ? "  flags        V_b corrected m3  energy corrected MJ\n" : "  flags\n");
     for (const auto& q : rows) {
       const std::string when = o.period == "day" ? q.contract_day : format_time_utc(q.start_utc_s).substr(5, 11);
       std::cout << std::left << std::setw(12) << q.point << std::setw(12) << when << std::right << std::setw(7)
@@ -71,9 +75,19 @@ int run_quantities(const QuantitiesOptions& o) {
                 << decimal(q.V_f_um3, 6) << std::setw(19) << decimal(q.V_b_um3, 6) << std::setw(15) << decimal(q.V_fault_um3, 6)
                 << std::setw(20) << decimal(q.E_J, 6) << std::setw(9) << opt_fixed(q.Hs_avg_MJ_per_m3, 1, 0, 3) << "  "
                 << ((q.flags & iflag::alarm) ? "alarm " : "") << ((q.flags & iflag::bad_input) ? "bad_input " : "")
-                << ((q.flags & iflag::gap) ? "gap " : "") << '\n';
+                << ((q.flags & iflag::gap) ? "gap " : "");
+      if (q.corrected) {
+        const std::string fl = std::string((q.flags & iflag::alarm) ? "alarm " : "") + ((q.flags & iflag::bad_input) ? "bad_input " : "") +
+                               ((q.flags & iflag::gap) ? "gap " : "");
+        std::cout << std::string(fl.size() < 11 ? 11 - fl.size() : 1, ' ') << std::setw(18) << decimal(q.V_b_um3_corrected, 6)
+                  << std::setw(21) << decimal(q.E_J_corrected, 6);
+      }
+      std::cout << '\n';
     }
-    std::cout << rows.size() << " record(s)\n";
+    std::cout << rows.size() << " record(s)";
+    if (corrected)
+      std::cout << "; the records are as recorded, the corrected columns sum the intervals no correction replaces";
+    std::cout << '\n';
   }
   return exit_ok;
 }

@@ -1,5 +1,7 @@
 #include "audit/audit.hpp"
 
+#include "audit/correct.hpp"
+
 #include <algorithm>
 #include <array>
 #include <cmath>
@@ -256,20 +258,21 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     if (opt.progress && (++progress_done & 4095) == 0) opt.progress(progress_done, std::max(progress_total, progress_done));
     const double Vb = static_cast<double>(iv.V_b_um3) * record::volume_quantum_m3;
     const double E = static_cast<double>(iv.E_J) * 1e-6;
-    if (!is_corrected) {
-      res.V_b_um3 += iv.V_b_um3;
-      res.E_J += iv.E_J;
-    }
     if (iv.corrects_seq == 0) {
       res.V_b_um3_as_recorded += iv.V_b_um3;
       res.E_J_as_recorded += iv.E_J;
     }
+    // A replaced record is checked by the chain only; its correction stands in for it.
+    if (is_corrected) return;
+    res.V_b_um3 += iv.V_b_um3;
+    res.E_J += iv.E_J;
+    add_to_totals(res.replay, iv, r);
     if (iv.point != cur_point) {
       cur_point = iv.point;
       have_prev = false;
     }
     // Sequence of the point's intervals (corrections replace their originals).
-    if (!is_corrected) {
+    {
       if (have_prev && iv.start_utc_s > prev_end) {
         AuditFinding a;
         a.kind = Kind::gap;
@@ -381,17 +384,59 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
                "the recomputed Z_f, Z_b, C, base volume or energy differs from the log by more than " + num(opt.tolerance_ppm) +
                    " ppm (volume and energy at stake = recomputed - logged)");
     }
-  });
+  }, &corrected);
   runs.close_all();
   if (opt.progress) opt.progress(progress_done, progress_done);
-  res.replay = rp.totals();
   if (opt.what_if.any()) {
     if (opt.what_if.analysis_seq && !rp.analyses().count(*opt.what_if.analysis_seq))
       throw io::InputError("what-if analysis", std::to_string(*opt.what_if.analysis_seq), "the seq of a gas_analysis record of the log");
     Replayer w(log, what_if_methods, {}, opt.what_if);
-    w.run(opt.selection, [](const LoggedInterval&, const IntervalReplay&) {});
-    res.what_if = w.totals();
+    w.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
+      if (!corrected.count(iv.seq)) add_to_totals(res.what_if, iv, r);
+    }, &corrected);
     res.what_if_run = true;
+  }
+
+  // The correction sets, with the totals of their intervals in the selection.
+  if (record::has_table(log.schema_version(), record::Table::correction_set)) {
+    const auto lo = opt.selection.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min());
+    const auto hi = opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max());
+    Stmt s(db,
+           "SELECT seq, point, created_utc_s, reason, method, base_T_K, base_p_Pa, analysis_seq, first_seq, last_seq FROM correction_set "
+           "WHERE (?1 IS NULL OR point = ?1) AND to_utc_s > ?2 AND from_utc_s < ?3 ORDER BY seq");
+    if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
+    s.bind(2, lo).bind(3, hi);
+    Stmt q(db,
+           "SELECT count(*), coalesce(sum(c.V_b_um3), 0), coalesce(sum(c.E_J), 0), coalesce(sum(o.V_b_um3), 0), coalesce(sum(o.E_J), 0), "
+           "min(c.start_utc_s), max(c.end_utc_s) FROM interval c LEFT JOIN interval o ON o.seq = c.corrects_seq "
+           "WHERE c.seq BETWEEN ?1 AND ?2 AND c.corrects_seq IS NOT NULL AND c.end_utc_s > ?3 AND c.start_utc_s < ?4");
+    while (s.step()) {
+      CorrectionSetSummary c;
+      c.seq = s.i64(0);
+      c.point = s.text(1);
+      c.created_utc_s = s.i64(2);
+      c.reason = s.text(3);
+      WhatIf w;
+      if (!s.is_null(4)) w.method = s.text(4);
+      if (!s.is_null(5)) w.base_T_K = s.f64(5);
+      if (!s.is_null(6)) w.base_p_Pa = s.f64(6);
+      if (!s.is_null(7)) w.analysis_seq = s.i64(7);
+      c.change = describe_change(w);
+      q.bind(1, s.i64(8)).bind(2, s.i64(9)).bind(3, lo).bind(4, hi);
+      if (q.step()) {
+        c.intervals = q.i64(0);
+        c.V_b_um3_corrected = q.i64(1);
+        c.E_J_corrected = q.i64(2);
+        c.V_b_um3_replaced = q.i64(3);
+        c.E_J_replaced = q.i64(4);
+        if (c.intervals) {
+          c.from_utc_s = q.i64(5);
+          c.to_utc_s = q.i64(6);
+        }
+      }
+      q.reset();
+      res.corrections.push_back(c);
+    }
   }
 
   // The verifier's findings.

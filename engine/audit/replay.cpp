@@ -235,7 +235,29 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   return r;
 }
 
-void Replayer::run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit) {
+void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalReplay& r) noexcept {
+  ++t.intervals;
+  if (!r.replayed) {
+    ++t.not_replayed;
+    return;
+  }
+  ++t.replayed;
+  t.V_b_um3_logged += iv.V_b_um3;
+  t.V_b_um3_replayed += r.V_b_um3;
+  t.E_J_logged += iv.E_J;
+  t.E_J_replayed += r.E_J;
+  track_max(t.max_dZ_f_ppm, r.dZ_f_ppm);
+  track_max(t.max_dZ_b_ppm, r.dZ_b_ppm);
+  track_max(t.max_dC_ppm, r.dC_ppm);
+  track_max(t.max_dV_b_ppm, r.dV_b_ppm);
+  track_max(t.max_dE_ppm, r.dE_ppm);
+  if (r.worst_ppm() > recalculation_bar_ppm) ++t.over_bar;
+}
+
+void Replayer::run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit,
+                   const std::set<std::int64_t>* replaced) {
+  IntervalReplay skipped;
+  skipped.why_not = "replaced by a correction";
   record::Stmt s(log_.db(), "SELECT " + logged_interval_columns() +
                                 " FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3"
                                 " ORDER BY point, start_utc_s, seq");
@@ -245,23 +267,12 @@ void Replayer::run(const Selection& sel, const std::function<void(const LoggedIn
   LoggedInterval iv;
   while (s.step()) {
     read_logged_interval(s, iv);
-    const IntervalReplay r = replay(iv);
-    ++totals_.intervals;
-    if (r.replayed) {
-      ++totals_.replayed;
-      totals_.V_b_um3_logged += iv.V_b_um3;
-      totals_.V_b_um3_replayed += r.V_b_um3;
-      totals_.E_J_logged += iv.E_J;
-      totals_.E_J_replayed += r.E_J;
-      track_max(totals_.max_dZ_f_ppm, r.dZ_f_ppm);
-      track_max(totals_.max_dZ_b_ppm, r.dZ_b_ppm);
-      track_max(totals_.max_dC_ppm, r.dC_ppm);
-      track_max(totals_.max_dV_b_ppm, r.dV_b_ppm);
-      track_max(totals_.max_dE_ppm, r.dE_ppm);
-      if (r.worst_ppm() > recalculation_bar_ppm) ++totals_.over_bar;
-    } else {
-      ++totals_.not_replayed;
+    if (replaced && replaced->count(iv.seq)) {
+      visit(iv, skipped);
+      continue;
     }
+    const IntervalReplay r = replay(iv);
+    add_to_totals(totals_, iv, r);
     visit(iv, r);
   }
 }

@@ -35,6 +35,7 @@
 #include <map>
 #include <memory>
 #include <optional>
+#include <set>
 #include <string>
 
 #include "eval/line_method.hpp"
@@ -124,6 +125,9 @@ struct WhatIf {
   [[nodiscard]] bool any() const noexcept { return method || base_T_K || base_p_Pa || analysis_seq; }
 };
 
+// Adds one replayed interval to running totals.
+void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalReplay& r) noexcept;
+
 // Reads a log's configurations and analyses once, then replays intervals.
 class Replayer {
  public:
@@ -134,7 +138,10 @@ class Replayer {
   // Every interval of the selection in (point, start, seq) order. Corrected
   // originals are included (LoggedInterval::corrects_seq marks corrections);
   // `visit` decides what to count.
-  void run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit);
+  // Intervals in `replaced` (records a later correction replaces) are
+  // visited without being recomputed or counted (why_not says so).
+  void run(const Selection& sel, const std::function<void(const LoggedInterval&, const IntervalReplay&)>& visit,
+           const std::set<std::int64_t>* replaced = nullptr);
   // Replays one logged interval.
   [[nodiscard]] IntervalReplay replay(const LoggedInterval& iv);
 

@@ -160,7 +160,9 @@ void Log::take_writer_lock() {
 void Log::read_head() {
   head_seq_ = 0;
   head_hash_ = zero_digest;
-  for (const auto& info : tables) {
+  for (std::size_t t = 0; t < table_count; ++t) {
+    const auto& info = tables[t];
+    if (!has_table(version_, static_cast<Table>(t))) continue;  // an older log read as it is
     Stmt s(db_, "SELECT seq, hash FROM " + std::string(info.name) + " ORDER BY seq DESC LIMIT 1");
     if (s.step() && s.i64(0) > head_seq_) {
       head_seq_ = s.i64(0);

@@ -12,6 +12,14 @@ std::vector<QuantityRecord> read_quantities(const Log& log, const std::string& p
          "WHERE q.period = ?1 AND (?2 = '' OR q.point = ?2) AND q.corrects_seq IS NULL ORDER BY q.seq");
   s.bind(1, std::string_view(period)).bind(2, std::string_view(point));
   std::vector<QuantityRecord> out;
+  bool any_correction = false;
+  {
+    Stmt c(log.db(), "SELECT 1 FROM interval WHERE corrects_seq IS NOT NULL LIMIT 1");
+    any_correction = c.step();
+  }
+  Stmt eff(log.db(),
+           "SELECT coalesce(sum(V_b_um3), 0), coalesce(sum(E_J), 0), coalesce(sum(mass_mg), 0) FROM interval i WHERE point = ?1 AND "
+           "start_utc_s >= ?2 AND end_utc_s <= ?3 AND NOT EXISTS (SELECT 1 FROM interval c WHERE c.corrects_seq = i.seq)");
   while (s.step()) {
     QuantityRecord q;
     q.seq = s.i64(0);
@@ -36,6 +44,16 @@ std::vector<QuantityRecord> read_quantities(const Log& log, const std::string& p
     q.cum_E_J = s.i64(19);
     if (!s.is_null(20)) q.volume_unit = s.text(20);
     if (!s.is_null(21)) q.energy_unit = s.text(21);
+    if (any_correction) {
+      eff.bind(1, std::string_view(q.point)).bind(2, q.start_utc_s).bind(3, q.end_utc_s);
+      if (eff.step()) {
+        q.corrected = true;
+        q.V_b_um3_corrected = eff.i64(0);
+        q.E_J_corrected = eff.i64(1);
+        q.mass_mg_corrected = eff.i64(2);
+      }
+      eff.reset();
+    }
     out.push_back(std::move(q));
   }
   return out;

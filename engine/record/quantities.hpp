@@ -18,9 +18,15 @@ struct QuantityRecord {
   std::int64_t V_f_um3 = 0, V_b_um3 = 0, V_fault_um3 = 0, E_J = 0, mass_mg = 0;
   std::int64_t cum_V_b_um3 = 0, cum_E_J = 0;
   std::string volume_unit = "m3", energy_unit = "MJ";  // of the configuration in force
+  // With correction sets in the log: the period's totals over the intervals
+  // no correction replaces (the record itself stays as recorded).
+  bool corrected = false;
+  std::int64_t V_b_um3_corrected = 0, E_J_corrected = 0, mass_mg_corrected = 0;
 };
 
-// Records of `period` ("hour" or "day"), in chain order; all points when point is empty.
+// Records of `period` ("hour" or "day"), in chain order; all points when point
+// is empty. When any interval of the log is a correction, every record also
+// carries its corrected totals.
 [[nodiscard]] std::vector<QuantityRecord> read_quantities(const Log& log, const std::string& point, const std::string& period);
 
 // An integer register as a decimal text of its SI quantity, exactly:

@@ -297,6 +297,13 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     prev_time = row_time(r);
     if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
   }
+  if (set_sums.n > 0) {  // correcting intervals no correction set accounts for
+    ++out.findings_total;
+    if (out.findings.size() < max_findings)
+      out.findings.push_back({"interval", set_sums.first, 0, "bad_correction",
+                              std::to_string(set_sums.n) + " correcting interval(s) from seq " + std::to_string(set_sums.first) +
+                                  " on belong to no correction set (a set is written last, with its records)"});
+  }
   if (out.records == 0) {
     ++out.findings_total;
     out.findings.push_back({"log_header", 1, 0, "removed", "the log holds no records (the log header is missing)"});
