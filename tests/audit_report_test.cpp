@@ -322,6 +322,10 @@ TEST(ReportHtml, WhatIfAndCorrectionSetsAreShownSideBySide) {
   EXPECT_NE(html.find("as first recorded"), std::string::npos);
   // The volume chart draws the as-recorded line beside the corrected one.
   EXPECT_EQ(count(html, "<path class=\"v-asrec\""), 1u);
+  // And a third chart shows the difference: +0.25 m3 in the first bucket (the only one corrected).
+  EXPECT_NE(html.find("data-charts=\"3\""), std::string::npos);
+  EXPECT_EQ(count(html, "<path class=\"v-diff\""), 1u);
+  EXPECT_NE(html.find("In total 0.250000 m\u00b3 (50\u2009000 ppm of the volume as first recorded)"), std::string::npos);
 }
 
 // Through the real audit: the observer sees every interval, and the charted totals are the audit's own.

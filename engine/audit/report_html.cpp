@@ -431,6 +431,50 @@ void volume_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
   o << "</svg>";
 }
 
+// Corrected minus as first recorded, per bucket (drawn only when they differ):
+// at the scale of the volume chart a correction of a few hundred ppm would not show.
+void correction_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
+  const std::size_t n = s.buckets.size();
+  TimeAxis ax{s.bucket_start(0), s.bucket_start(n)};
+  double dmin = 0, dmax = 0;
+  for (const auto& b : s.buckets) {
+    const double d = static_cast<double>(b.V_b_um3_logged - b.V_b_um3_as_recorded) * record::volume_quantum_m3;
+    dmin = std::min(dmin, d);
+    dmax = std::max(dmax, d);
+  }
+  const NiceScale sc = nice_scale(std::max(dmax - dmin, 1e-6));
+  const double lo = std::floor(dmin / sc.step - 1e-9) * sc.step, hi = std::max(lo + sc.step, std::ceil(dmax / sc.step - 1e-9) * sc.step);
+  auto y = [&](double v) { return m_top + plot_h - (std::clamp(v, lo, hi) - lo) / (hi - lo) * plot_h; };
+  o << "<svg class=\"chart\" id=\"chart-" << chart_no << "\" viewBox=\"0 0 " << chart_w << ' ' << chart_h
+    << "\" role=\"img\" aria-labelledby=\"chart-" << chart_no << "-t\"><title id=\"chart-" << chart_no
+    << "-t\">Corrected minus as first recorded, " << esc(s.point) << "</title>";
+  frame(o);
+  time_ticks(o, ax);
+  o << "<g class=\"vticks\">";
+  const int nticks = static_cast<int>(std::lround((hi - lo) / sc.step));
+  for (int k = 0; k <= nticks; ++k) {
+    const double v = lo + k * sc.step, yy = y(v);
+    o << "<line class=\"" << (std::fabs(v) < sc.step * 1e-6 ? "zero" : "grid") << "\" x1=\"" << m_left << "\" x2=\"" << m_left + plot_w
+      << "\" y1=\"" << svg_num(yy) << "\" y2=\"" << svg_num(yy) << "\"/><text class=\"vl\" x=\"" << m_left - 6 << "\" y=\""
+      << svg_num(yy + 4) << "\">" << tick_text(std::fabs(v) < sc.step * 1e-6 ? 0.0 : v, sc.step) << "</text>";
+  }
+  o << "</g><text class=\"axis-title\" transform=\"translate(14 " << m_top + plot_h / 2
+    << ") rotate(-90)\" text-anchor=\"middle\">\u0394V_b per bucket, m\u00b3</text>";
+  const double slot = plot_w / static_cast<double>(n);
+  const double sw = std::clamp(slot * 0.7, 1.0, 8.0);
+  std::ostringstream d;
+  for (std::size_t i = 0; i < n; ++i) {
+    const auto& b = s.buckets[i];
+    if (b.V_b_um3_logged == b.V_b_um3_as_recorded) continue;
+    const double x = ax.x(static_cast<double>(s.bucket_start(i)) + static_cast<double>(s.width_s) / 2);
+    d << 'M' << svg_num(x) << ' ' << svg_num(y(0)) << 'V'
+      << svg_num(y(static_cast<double>(b.V_b_um3_logged - b.V_b_um3_as_recorded) * record::volume_quantum_m3));
+  }
+  if (!d.str().empty()) o << "<path class=\"v-diff\" stroke-width=\"" << svg_num(sw) << "\" d=\"" << d.str() << "\"/>";
+  legend(o, {{"v-diff", "corrected \u2212 as first recorded", false}});
+  o << "</svg>";
+}
+
 // ---------------------------------------------------------------- page
 
 constexpr const char* page_css = R"css(
@@ -446,12 +490,12 @@ code,.mono{font-family:"DejaVu Sans Mono",Menlo,Consolas,monospace;font-size:12.
 dd.mono,h1 code{overflow-wrap:anywhere}
 .scroll{overflow-x:auto}
 td.kind{white-space:nowrap}
-table.findings{font-size:12.5px}table.findings th{white-space:normal;vertical-align:bottom}
-table.findings td,table.findings th{padding-left:6px;padding-right:6px}
-table.findings tr.finding td{border-bottom:none;padding-bottom:1px}
-table.findings tr.detail td{padding-top:0;color:#34444e;font-size:12.5px}
-table.findings tbody.finding-group:nth-of-type(even) td{background:#f4f7f8}
-table.findings tbody.finding-group{break-inside:avoid}
+table.findings,table.sets{font-size:12.5px}table.findings th,table.sets th{white-space:normal;vertical-align:bottom}
+table.findings td,table.findings th,table.sets td,table.sets th{padding-left:6px;padding-right:6px}
+table.findings tr.finding td,table.sets tr.set td{border-bottom:none;padding-bottom:1px}
+table.findings tr.detail td,table.sets tr.detail td{padding-top:0;color:#34444e;font-size:12.5px}
+tbody.finding-group:nth-of-type(even) td,tbody.set-group:nth-of-type(even) td{background:#f4f7f8}
+tbody.finding-group,tbody.set-group{break-inside:avoid}
 dl.meta{display:grid;grid-template-columns:max-content 1fr;gap:2px 16px;margin:8px 0 12px}
 dl.meta dt{color:var(--muted)}dl.meta dd{margin:0}
 nav{font-size:13px;margin:6px 0 10px}nav a{color:var(--accent);margin-right:14px;text-decoration:none}
@@ -465,7 +509,7 @@ th,td{padding:4px 9px;border-bottom:1px solid var(--rule);text-align:left;vertic
 th{background:var(--band);font-weight:600;white-space:nowrap}
 td.n,th.n{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
 td.t{white-space:nowrap;font-variant-numeric:tabular-nums}
-tbody:not(.finding-group) tr:nth-child(even) td{background:#f4f7f8}
+tbody:not(.finding-group):not(.set-group) tr:nth-child(even) td{background:#f4f7f8}
 table.wide{width:100%}
 tr.sev-critical td:first-child{border-left:5px solid var(--crit)}
 tr.sev-warning td:first-child{border-left:5px solid var(--warn)}
@@ -491,6 +535,8 @@ svg .plot-note{fill:var(--ok);font-size:12.5px}
 svg .v-logged{stroke:#1d5f8a;stroke-width:2;fill:none}
 svg .v-recomp{stroke:#e08a1e;stroke-width:1.6;stroke-dasharray:5 4;fill:none}
 svg .v-asrec{stroke:#9aa3a8;stroke-width:4;fill:none;opacity:.8}
+svg .v-diff{stroke:#6b4fa0;fill:none}svg rect.v-diff{fill:#6b4fa0;stroke:none}
+svg .zero{stroke:#7d8b93;stroke-width:1.2}
 footer{margin-top:30px;padding-top:8px;border-top:1px solid var(--rule);font-size:12px;color:var(--muted)}
 @media print{body{max-width:none;padding:0;background:#fff;font-size:10.5pt}nav{display:none}.scroll{overflow:visible}
 h2{break-after:avoid}thead{display:table-header-group}tr{break-inside:avoid}figure{border:none;padding:0}
@@ -536,8 +582,8 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
     << "</td></tr>"
     << "</tbody></table>";
   o << "<h3>Logged against recomputed</h3><p class=\"small\">Over the " << t.replayed
-    << " recomputed intervals (corrected originals included). Base volume in m\u00b3 at the configured base conditions, "
-       "energy in MJ.</p>"
+    << " recomputed intervals (records that a correction replaces are not recomputed). Base volume in m\u00b3 at the "
+       "configured base conditions, energy in MJ.</p>"
     << "<table><thead><tr><th></th><th class=\"n\">logged</th><th class=\"n\">recomputed</th><th class=\"n\">difference</th>"
        "<th class=\"n\">ppm</th></tr></thead><tbody>";
   totals_row(o, "base volume, m\u00b3", t.V_b_um3_logged, t.V_b_um3_replayed);
@@ -573,19 +619,21 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
   o << "</section>";
 
   if (!r.corrections.empty()) {
-    o << "<section id=\"corrections\"><h2>Correction sets</h2><div class=\"scroll\"><table class=\"wide\"><thead><tr><th class=\"n\">seq</th><th>point</th>"
-         "<th>created</th><th>from</th><th>to</th><th class=\"n\">intervals</th><th>reason</th><th>change</th>"
+    // Each set is a tbody of two rows: its figures, then when, what and why.
+    o << "<section id=\"corrections\"><h2>Correction sets</h2><div class=\"scroll\"><table class=\"sets wide\"><thead><tr>"
+         "<th class=\"n\">seq</th><th>point</th><th>from</th><th>to</th><th class=\"n\">intervals</th>"
          "<th class=\"n\">V_b replaced, m\u00b3</th><th class=\"n\">V_b corrected, m\u00b3</th><th class=\"n\">\u0394V_b, m\u00b3</th>"
-         "<th class=\"n\">E replaced, MJ</th><th class=\"n\">E corrected, MJ</th><th class=\"n\">\u0394E, MJ</th></tr></thead><tbody>";
+         "<th class=\"n\">\u0394V_b, ppm</th><th class=\"n\">\u0394E, MJ</th></tr></thead>";
     for (const auto& c : r.corrections)
-      o << "<tr><td class=\"n\">" << c.seq << "</td><td>" << esc(c.point) << "</td><td class=\"t\">" << t_or_dash(c.created_utc_s)
+      o << "<tbody class=\"set-group\"><tr class=\"set\"><td class=\"n\">" << c.seq << "</td><td>" << esc(c.point)
         << "</td><td class=\"t\">" << t_or_dash(c.from_utc_s) << "</td><td class=\"t\">" << t_or_dash(c.to_utc_s)
-        << "</td><td class=\"n\">" << c.intervals << "</td><td>" << esc(c.reason) << "</td><td>" << esc(c.change)
-        << "</td><td class=\"n\">" << reg(c.V_b_um3_replaced) << "</td><td class=\"n\">" << reg(c.V_b_um3_corrected)
-        << "</td><td class=\"n\">" << reg(c.V_b_um3_corrected - c.V_b_um3_replaced) << "</td><td class=\"n\">" << reg(c.E_J_replaced)
-        << "</td><td class=\"n\">" << reg(c.E_J_corrected) << "</td><td class=\"n\">" << reg(c.E_J_corrected - c.E_J_replaced)
-        << "</td></tr>";
-    o << "</tbody></table></div></section>";
+        << "</td><td class=\"n\">" << c.intervals << "</td><td class=\"n\">" << reg(c.V_b_um3_replaced) << "</td><td class=\"n\">"
+        << reg(c.V_b_um3_corrected) << "</td><td class=\"n\">" << reg(c.V_b_um3_corrected - c.V_b_um3_replaced)
+        << "</td><td class=\"n\">" << rel_ppm(c.V_b_um3_corrected, c.V_b_um3_replaced) << "</td><td class=\"n\">"
+        << reg(c.E_J_corrected - c.E_J_replaced) << "</td></tr><tr class=\"detail\"><td></td><td class=\"detail\" colspan=\"9\">"
+        << "written " << t_or_dash(c.created_utc_s) << "; energy " << reg(c.E_J_replaced) << " MJ replaced, " << reg(c.E_J_corrected)
+        << " MJ corrected; change: " << esc(c.change) << "; reason: " << esc(c.reason) << "</td></tr></tbody>";
+    o << "</table></div></section>";
   }
 }
 
@@ -662,6 +710,15 @@ int charts_section(std::ostream& o, const ReportCollector& c) {
       << reg(s.total.V_b_um3_recomputed) << " m\u00b3";
     if (shows_as_recorded(s)) o << ", as first recorded " << reg(s.total.V_b_um3_as_recorded) << " m\u00b3";
     o << ".</figcaption></figure>";
+    if (shows_as_recorded(s)) {
+      o << "<figure>";
+      correction_chart(o, s, ++chart_no);
+      o << "<figcaption>What the correction sets changed for " << esc(s.point) << ": per bucket of " << w
+        << ", the base volume in force minus the base volume as first recorded (linear scale, m\u00b3; buckets the corrections "
+           "leave alone draw nothing). In total "
+        << reg(s.total.V_b_um3_logged - s.total.V_b_um3_as_recorded) << " m\u00b3 ("
+        << rel_ppm(s.total.V_b_um3_logged, s.total.V_b_um3_as_recorded) << " ppm of the volume as first recorded).</figcaption></figure>";
+    }
   }
   if (c.uncharted_intervals() > 0)
     o << "<p class=\"small\">Only the first " << ReportCollector::max_points << " points are charted; " << c.uncharted_intervals()

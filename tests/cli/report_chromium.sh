@@ -14,6 +14,7 @@ rm -rf out && mkdir -p out/config out/cache
 # Chromium keeps nothing outside the work folder.
 export XDG_CONFIG_HOME="$work/out/config" XDG_CACHE_HOME="$work/out/cache"
 fail() { echo "FAIL: $*"; exit 1; }
+occurrences() { { grep -o "$1" "$2" || true; } | wc -l; }  # count PATTERN FILE (0 is an answer, not an error)
 
 # A copy of the demo's week with three intervals changed the way a tamperer
 # would (Z_f 100 ppm off, beyond the 50 ppm bar), and a contract that the
@@ -41,8 +42,8 @@ check_report() {  # check_report NAME MIN_FINDINGS MIN_CHARTS
   grep -q 'data-render-check="ok"' "$dom" ||
     fail "$name: render self-check: $(grep -o 'data-render-check="[^"]*"' "$dom" || echo 'no body attribute')"
   local rows charts
-  rows=$(grep -o '<tr class="finding ' "$dom" | wc -l)
-  charts=$(grep -o '<svg class="chart"' "$dom" | wc -l)
+  rows=$(occurrences '<tr class="finding ' "$dom")
+  charts=$(occurrences '<svg class="chart"' "$dom")
   [ "$rows" -ge "$min_findings" ] || fail "$name: $rows findings rows, expected at least $min_findings"
   [ "$charts" -ge "$min_charts" ] || fail "$name: $charts charts, expected at least $min_charts"
   grep -q '<path class="v-logged"' "$dom" || fail "$name: the volume chart has no logged line"
@@ -55,7 +56,7 @@ check_report() {  # check_report NAME MIN_FINDINGS MIN_CHARTS
   ! grep -q '<script' "out/$name.noscript.html" || fail "$name: the copy still has a script"
   browser "$name.noscript" --dump-dom "file://$work/out/$name.noscript.html"
   grep -q 'data-render-check="pending"' "out/$name.noscript.stdout" || fail "$name: the copy ran a script"
-  [ "$(grep -o '<tr class="finding ' "out/$name.noscript.stdout" | wc -l)" -eq "$rows" ] || fail "$name: rows differ without scripts"
+  [ "$(occurrences '<tr class="finding ' "out/$name.noscript.stdout")" -eq "$rows" ] || fail "$name: rows differ without scripts"
 
   browser "$name.png" --screenshot="$work/out/$name.png" --window-size=1280,2000 "$url"
   [ -f "out/$name.png" ] || fail "$name: no screenshot"
@@ -89,5 +90,19 @@ grep -q '<path class="dev-over"' out/demo.dom.stdout || fail "demo: the deviatio
 run_audit tampered 1 --db "$tampered_db"
 check_report tampered 2 2
 grep -q 'broken_chain' out/tampered.dom.stdout || fail "tampered: no broken_chain row"
+
+# A copy of the week with a correction set over one day (a reason with markup characters in it): the audit
+# is clean, the report lists the set and draws the as-recorded line beside the corrected one.
+sqlite3 "$demo_db" ".backup out/demo-corrected.db"
+"$zcorr" correct --db out/demo-corrected.db --point HF-1 --from 2026-03-04T06:00:00Z --to 2026-03-05T06:00:00Z \
+  --base-p "101.56 kPa" --reason 'contract <base_p> is 101.56 kPa & "not" 101.325' > out/correct.txt 2>&1 ||
+  fail "zcorr correct: $(cat out/correct.txt)"
+run_audit corrected 0 --db out/demo-corrected.db
+check_report corrected 0 3
+grep -q '<p class="none">The audit found nothing' out/corrected.dom.stdout || fail "corrected: the empty findings are not stated"
+grep -q '<section id="corrections">' out/corrected.dom.stdout || fail "corrected: no table of correction sets"
+grep -q 'contract &lt;base_p&gt; is 101.56 kPa &amp; "not" 101.325' out/corrected.dom.stdout || fail "corrected: the reason is not shown as text"
+grep -q '<path class="v-asrec"' out/corrected.dom.stdout || fail "corrected: no as-recorded line in the volume chart"
+grep -q '<path class="v-diff"' out/corrected.dom.stdout || fail "corrected: no chart of what the correction changed"
 
 echo "report in a browser: all checks passed in $(( $(date +%s) - start )) s"
