@@ -282,6 +282,18 @@ TEST(ReportHtml, AnEmptyFindingListSaysSo) {
   EXPECT_NE(html.find("nothing to chart"), std::string::npos);
 }
 
+TEST(ReportHtml, APointWithNothingRecomputedSaysSoInItsChart) {
+  ReportCollector c;
+  IntervalReplay not_replayed;
+  not_replayed.why_not = "method 'x' is not available in this build";
+  for (int i = 0; i < 10; ++i) c.observe(interval("P", 1772431200 + 60 * i, 1000), not_replayed, true);
+  const std::string html = page(audit::AuditResult{}, c);
+  EXPECT_NE(html.find("no interval of this point could be recomputed"), std::string::npos);
+  EXPECT_EQ(count(html, "<path class=\"dev"), 0u);       // no deviation drawn
+  EXPECT_EQ(count(html, "<path class=\"v-logged\""), 1u);  // the logged volume still is
+  EXPECT_EQ(count(html, "<path class=\"v-recomp\""), 0u);
+}
+
 TEST(ReportHtml, WhatIfAndCorrectionSetsAreShownSideBySide) {
   auto r = sample_result();
   r.what_if_run = true;

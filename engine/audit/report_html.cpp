@@ -334,7 +334,10 @@ void deviation_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
   if (!over.str().empty())
     o << "<path class=\"dev-over\" stroke-width=\"" << svg_num(std::max(sw, 2.0)) << "\" d=\"" << over.str() << "\"/>";
   if (!nc.str().empty()) o << "<path class=\"dev-nc\" stroke-width=\"" << svg_num(std::max(sw, 2.0)) << "\" d=\"" << nc.str() << "\"/>";
-  if (s.total.replayed > s.total.not_comparable && worst < std::pow(10.0, ppm_floor_decade))
+  if (s.total.replayed == 0)
+    o << "<text class=\"plot-note warn\" x=\"" << m_left + plot_w / 2 << "\" y=\"" << svg_num(m_top + plot_h / 2)
+      << "\" text-anchor=\"middle\">no interval of this point could be recomputed (see the not_replayed findings)</text>";
+  else if (s.total.replayed > s.total.not_comparable && worst < std::pow(10.0, ppm_floor_decade))
     o << "<text class=\"plot-note\" x=\"" << m_left + plot_w / 2 << "\" y=\"" << svg_num(y0 - 14)
       << "\" text-anchor=\"middle\">every recomputed interval matches the log to below 0.0001 ppm</text>";
   const double yb = y(recalculation_bar_ppm);
@@ -531,7 +534,7 @@ svg .dev-over{stroke:var(--crit);fill:none}svg rect.dev-over{fill:var(--crit);st
 svg .dev-nc{stroke:#d08300;fill:none}svg rect.dev-nc{fill:#d08300;stroke:none}
 svg .bar{stroke:var(--crit);stroke-width:1.5;stroke-dasharray:7 4}
 svg .bar-label{fill:var(--crit);font-size:11.5px}
-svg .plot-note{fill:var(--ok);font-size:12.5px}
+svg .plot-note{fill:var(--ok);font-size:12.5px}svg .plot-note.warn{fill:var(--warn)}
 svg .v-logged{stroke:#1d5f8a;stroke-width:2;fill:none}
 svg .v-recomp{stroke:#e08a1e;stroke-width:1.6;stroke-dasharray:5 4;fill:none}
 svg .v-asrec{stroke:#9aa3a8;stroke-width:4;fill:none;opacity:.8}

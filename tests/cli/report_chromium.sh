@@ -90,6 +90,7 @@ grep -q '<path class="dev-over"' out/demo.dom.stdout || fail "demo: the deviatio
 run_audit tampered 1 --db "$tampered_db"
 check_report tampered 2 2
 grep -q 'broken_chain' out/tampered.dom.stdout || fail "tampered: no broken_chain row"
+grep -q 'no interval of this point could be recomputed' out/tampered.dom.stdout || fail "tampered: the chart does not say nothing was recomputed"
 
 # A copy of the week with a correction set over one day (a reason with markup characters in it): the audit
 # is clean, the report lists the set and draws the as-recorded line beside the corrected one.
