@@ -4,6 +4,9 @@
 // (missing, corrupt, not a zcorr log, newer schema).
 #include <cmath>
 #include <cstdio>
+#include <ctime>
+#include <filesystem>
+#include <fstream>
 #include <iostream>
 #include <memory>
 #include <sstream>
@@ -11,6 +14,7 @@
 #include <nlohmann/json.hpp>
 
 #include "audit/audit.hpp"
+#include "audit/report_html.hpp"
 #include "commands.hpp"
 #include "common.hpp"
 #include "io/input_error.hpp"
@@ -25,6 +29,7 @@ namespace {
 struct AuditCliOptions {
   std::string db, point, from, to, contract;
   std::string wi_method, wi_base_T, wi_base_p;
+  std::string report;  // --report FILE.html
   std::int64_t wi_analysis = 0;
   double max_age_h = 840;
   double tolerance_ppm = audit::recalculation_bar_ppm;
@@ -78,14 +83,58 @@ int run_audit_cmd(const AuditCliOptions& o) {
   if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
 
   ao.progress = stderr_progress("audit");
+
+  // --report: the HTML report, fed while the audit replays. The path is tried
+  // before the replay (without truncating it), and removed again when the log
+  // cannot be read and the file was created here.
+  ReportCollector report_charts;
+  bool report_created = false;
+  if (!o.report.empty()) {
+    std::error_code ec;
+    report_created = !std::filesystem::exists(o.report, ec);
+    if (std::filesystem::is_directory(o.report, ec) || !std::ofstream(o.report, std::ios::app))
+      throw io::InputError("--report", o.report, "a file that can be written (its folder must exist)");
+    ao.observe = report_charts.observer();
+  }
+  auto write_report = [&](const AuditResult& res) {
+    ReportHeader h;
+    h.log_file = o.db;
+    h.produced_utc_s = static_cast<std::int64_t>(std::time(nullptr));
+    h.produced_by = "zcorr audit";
+    std::string sel;
+    if (!o.point.empty()) sel += "point " + o.point;
+    if (!o.from.empty()) sel += (sel.empty() ? "" : ", ") + std::string("intervals ending after ") + o.from;
+    if (!o.to.empty()) sel += (sel.empty() ? "" : ", ") + std::string("intervals starting before ") + o.to;
+    h.selection = sel.empty() ? "the whole log" : sel;
+    h.tolerance_ppm = o.tolerance_ppm;
+    std::string wi;
+    if (!o.wi_method.empty()) wi += "method " + o.wi_method;
+    if (!o.wi_base_T.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base temperature ") + o.wi_base_T;
+    if (!o.wi_base_p.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base pressure ") + o.wi_base_p;
+    if (o.wi_analysis) wi += (wi.empty() ? "" : ", ") + std::string("gas_analysis seq ") + std::to_string(o.wi_analysis);
+    if (!wi.empty()) h.what_if = "Recomputed with " + wi;
+    std::ofstream f(o.report, std::ios::trunc);
+    write_html_report(f, res, report_charts, h);
+    f.close();
+    if (!f) throw io::InputError("--report", o.report, "a file that can be written (writing it failed)");
+    std::cerr << "zcorr audit: report written to " << o.report << '\n';
+  };
+
   AuditResult r;
   try {
     record::Log log(o.db, {record::OpenMode::read_only});
     r = run_audit(log, ao, built_in_methods());
   } catch (const record::LogError& e) {
     std::cerr << "zcorr audit: " << e.what() << '\n';
+    std::error_code ec;
+    if (report_created) std::filesystem::remove(o.report, ec);
     return exit_unusable;
+  } catch (...) {
+    std::error_code ec;
+    if (report_created) std::filesystem::remove(o.report, ec);
+    throw;
   }
+  if (!o.report.empty()) write_report(r);
   const ReplayTotals& t = r.replay;
   const bool clean = r.findings.empty();
 
@@ -233,12 +282,17 @@ void setup_audit(CLI::App& app, int& exit_code) {
   sub->add_option("--what-if-base-T", opt->wi_base_T, "What-if: base temperature, e.g. \"60 degF\"");
   sub->add_option("--what-if-base-p", opt->wi_base_p, "What-if: base pressure, absolute, e.g. \"14.73 psia\"");
   sub->add_option("--what-if-analysis", opt->wi_analysis, "What-if: use this gas_analysis record (seq) for every interval");
+  sub->add_option("--report", opt->report,
+                  "Also write a self-contained HTML report (totals, findings, charts per point) to this file");
   add_format_option(*sub, opt->format);
   sub->footer(
       "\nFinding kinds: broken_chain, totals_mismatch, gap, overlap, duplicate, stale_analysis, contract_mismatch,\n"
       "outside_method_range, calc_difference, config_without_event, not_replayed.\n"
       "Contract file example:\n  point = ST-1\n  method = gerg2008\n  base_T = 15 degC\n  base_p = 101.325 kPa\n\n"
-      "Exit status: 0 nothing found, 1 findings, 2 the log cannot be read.\n\nExample:\n  zcorr audit --db station.db --contract contract.txt\n");
+      "--report FILE.html writes one HTML file with no outside references (inline CSS and SVG charts of the replay\n"
+      "deviation and the base volume over time); the normal output still goes to standard output.\n\n"
+      "Exit status: 0 nothing found, 1 findings, 2 the log cannot be read.\n\nExample:\n  zcorr audit --db station.db --contract contract.txt\n"
+      "  zcorr audit --db station.db --report audit.html\n");
   sub->callback([opt, &exit_code] { exit_code = guarded("audit", [&] { return run_audit_cmd(*opt); }); });
 }
 
