@@ -84,16 +84,31 @@ int run_audit_cmd(const AuditCliOptions& o) {
 
   ao.progress = stderr_progress("audit");
 
-  // --report: the HTML report, fed while the audit replays. The path is tried
-  // before the replay (without truncating it), and removed again when the log
-  // cannot be read and the file was created here.
+  // --report: the HTML report, fed while the audit replays. The path is
+  // checked before the replay: never the log itself or one of its companion
+  // files, never an existing SQLite file, and its folder must take a new
+  // file. The page is written to a temporary file beside it and renamed, so
+  // an existing file is replaced whole or not at all.
   ReportCollector report_charts;
-  bool report_created = false;
   if (!o.report.empty()) {
+    namespace fs = std::filesystem;
     std::error_code ec;
-    report_created = !std::filesystem::exists(o.report, ec);
-    if (std::filesystem::is_directory(o.report, ec) || !std::ofstream(o.report, std::ios::app))
+    const fs::path rp(o.report);
+    for (const char* suffix : {"", "-wal", "-shm", "-journal", "-writer.lock"})
+      if (fs::exists(o.db + suffix, ec) && fs::equivalent(rp, o.db + suffix, ec))
+        throw io::InputError("--report", o.report, "a file other than the log given with --db and its companion files");
+    if (fs::is_directory(rp, ec)) throw io::InputError("--report", o.report, "a file, not a folder");
+    if (fs::exists(rp, ec)) {
+      std::ifstream in(rp, std::ios::binary);
+      char head[16] = {};
+      in.read(head, sizeof head);
+      if (in.gcount() == 16 && std::string(head, 16) == std::string("SQLite format 3\0", 16))
+        throw io::InputError("--report", o.report, "a path that is not an SQLite database (refusing to overwrite it)");
+    }
+    const fs::path probe = rp.string() + ".zcorr-tmp";
+    if (!std::ofstream(probe, std::ios::trunc))
       throw io::InputError("--report", o.report, "a file that can be written (its folder must exist)");
+    fs::remove(probe, ec);
     ao.observe = report_charts.observer();
   }
   auto write_report = [&](const AuditResult& res) {
@@ -113,10 +128,22 @@ int run_audit_cmd(const AuditCliOptions& o) {
     if (!o.wi_base_p.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base pressure ") + o.wi_base_p;
     if (o.wi_analysis) wi += (wi.empty() ? "" : ", ") + std::string("gas_analysis seq ") + std::to_string(o.wi_analysis);
     if (!wi.empty()) h.what_if = "Recomputed with " + wi;
-    std::ofstream f(o.report, std::ios::trunc);
-    write_html_report(f, res, report_charts, h);
-    f.close();
-    if (!f) throw io::InputError("--report", o.report, "a file that can be written (writing it failed)");
+    const std::filesystem::path tmp = o.report + ".zcorr-tmp";
+    std::error_code ec;
+    {
+      std::ofstream f(tmp, std::ios::trunc);
+      write_html_report(f, res, report_charts, h);
+      f.close();
+      if (!f) {
+        std::filesystem::remove(tmp, ec);
+        throw io::InputError("--report", o.report, "a file that can be written (writing it failed)");
+      }
+    }
+    std::filesystem::rename(tmp, o.report, ec);
+    if (ec) {
+      std::filesystem::remove(tmp, ec);
+      throw io::InputError("--report", o.report, "a file that can be replaced (renaming the new report onto it failed)");
+    }
     std::cerr << "zcorr audit: report written to " << o.report << '\n';
   };
 
@@ -126,13 +153,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
     r = run_audit(log, ao, built_in_methods());
   } catch (const record::LogError& e) {
     std::cerr << "zcorr audit: " << e.what() << '\n';
-    std::error_code ec;
-    if (report_created) std::filesystem::remove(o.report, ec);
     return exit_unusable;
-  } catch (...) {
-    std::error_code ec;
-    if (report_created) std::filesystem::remove(o.report, ec);
-    throw;
   }
   if (!o.report.empty()) write_report(r);
   const ReplayTotals& t = r.replay;
@@ -246,6 +267,12 @@ int run_audit_cmd(const AuditCliOptions& o) {
                   << ", " << c.intervals << " interval(s): " << c.change << "; V_b " << record::decimal(c.V_b_um3_replaced, 6) << " -> "
                   << record::decimal(c.V_b_um3_corrected, 6) << " m3, E " << record::decimal(c.E_J_replaced, 6) << " -> "
                   << record::decimal(c.E_J_corrected, 6) << " MJ\n      reason: " << c.reason << '\n';
+      for (const auto& c : r.corrections)
+        if (c.change.find("base_") != std::string::npos) {
+          std::cout << "  (a set changes the base conditions: its volumes are at other base conditions, so the volume difference\n"
+                       "   is mostly the change of reference; the energy compares directly)\n";
+          break;
+        }
     }
     if (clean) {
       std::cout << "result     nothing found\n";

@@ -58,6 +58,10 @@ int run_correct(const CorrectCliOptions& o) {
             << "energy     " << record::decimal(s.E_J_replaced, 6) << " MJ as logged, " << record::decimal(s.E_J_corrected, 6)
             << " MJ corrected (" << record::decimal(s.E_J_corrected - s.E_J_replaced, 6) << ")\n"
             << "The records it replaces are unchanged; zcorr audit shows both totals side by side.\n";
+  if (out.unconverted)
+    std::cout << "note       " << out.unconverted
+              << " interval(s) had line volume but no converted volume as logged (conversion stopped); they stay so:\n"
+                 "           the log keeps no samples to convert them from.\n";
   return exit_ok;
 }
 

@@ -146,13 +146,15 @@ TEST(ReportCollector, CorrectedOriginalsCountAsRecordedNotInForce) {
   correction.corrects_seq = 10;
   IntervalReplay not_replayed;
   not_replayed.why_not = "unknown method";
-  c.observe(original, replayed(1000, 0), false);
+  IntervalReplay replaced;  // the audit does not recompute a record a correction replaces
+  replaced.why_not = "replaced by a correction";
+  c.observe(original, replaced, false);
   c.observe(correction, replayed(1100, 0), true);
   c.observe(interval("P", t + 60, 500, 11), not_replayed, true);
   const auto& s = c.series().at(0);
   EXPECT_EQ(s.total.intervals, 3);
   EXPECT_EQ(s.total.effective, 2);
-  EXPECT_EQ(s.total.replayed, 2);
+  EXPECT_EQ(s.total.replayed, 1);
   EXPECT_EQ(s.total.V_b_um3_logged, 1100 + 500);
   EXPECT_EQ(s.total.V_b_um3_recomputed, 1100);  // the not replayed interval has no recomputed figure
   EXPECT_EQ(s.total.V_b_um3_as_recorded, 1000 + 500);

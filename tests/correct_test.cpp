@@ -5,23 +5,82 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <span>
 #include <stdexcept>
 
 #include "audit/audit.hpp"
 #include "audit/correct.hpp"
 #include "io/input_error.hpp"
+#include "record/interval_calc.hpp"
 #include "record/quantities.hpp"
+#include "record/tables.hpp"
 #include "record/verify.hpp"
 #include "support/record_fixture.hpp"
 
 namespace zcorr {
 namespace {
 
+// A test double that refuses every composition (as a method refuses a gas
+// outside its composition range).
+class RefusingGas final : public LineMethod {
+ public:
+  [[nodiscard]] MethodId id() const noexcept override { return MethodId::gerg2008; }
+  Status prepare(const Fractions<double>&) noexcept override { return make_status(Code::invalid_composition); }
+  [[nodiscard]] StateOutput state(double, double, const EvalOptions&) const noexcept override {
+    StateOutput o;
+    o.status = make_status(Code::invalid_composition);
+    return o;
+  }
+};
+
 audit::MethodFactory test_methods() {
   return [](const std::string& name) -> std::unique_ptr<LineMethod> {
     if (name == "virial_test_gas") return std::make_unique<testing::VirialTestGas>();
+    if (name == "refusing_test_gas") return std::make_unique<RefusingGas>();
     return nullptr;
   };
+}
+
+// Appends a correcting interval (a copy of `original` changed by `edit`) and
+// a correction set with totals that add up, with valid hashes: what a forger
+// with the file and this code could write.
+template <class Edit>
+void forge_set(const std::filesystem::path& file, std::vector<std::int64_t> originals, Edit edit) {
+  record::Log log(file, {record::OpenMode::writer});
+  const std::span<const std::string_view> ic = record::cols::interval;
+  auto col = [&](std::string_view n) {
+    for (std::size_t i = 0; i < ic.size(); ++i)
+      if (ic[i] == n) return i;
+    return ic.size();
+  };
+  std::string sql = "SELECT ";
+  for (std::size_t i = 0; i < ic.size(); ++i) sql += (i ? ", " : "") + std::string(ic[i]);
+  log.begin();
+  std::int64_t first = 0, last = 0, n = 0, vb = 0, e = 0, vb_r = 0, e_r = 0, t_from = 0, t_to = 0;
+  for (auto seq : originals) {
+    record::Stmt s(log.db(), sql + " FROM interval WHERE seq = " + std::to_string(seq));
+    if (!s.step()) throw std::runtime_error("no interval " + std::to_string(seq));
+    std::vector<record::Value> v(ic.size());
+    for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
+    vb_r += std::get<std::int64_t>(v[col("V_b_um3")]);
+    e_r += std::get<std::int64_t>(v[col("E_J")]);
+    v[0] = record::Null{};
+    v[col("corrects_seq")] = seq;
+    v[col("correction_reason")] = std::string("correction set: forged");
+    edit(v, col);
+    last = log.append(record::Table::interval, v);
+    if (!first) first = last;
+    ++n;
+    vb += std::get<std::int64_t>(v[col("V_b_um3")]);
+    e += std::get<std::int64_t>(v[col("E_J")]);
+    t_from = std::get<std::int64_t>(v[col("start_utc_s")]);
+    t_to = std::get<std::int64_t>(v[col("end_utc_s")]);
+  }
+  std::vector<record::Value> set{record::Null{}, std::string("TEST-1"), std::int64_t{0}, t_from, t_to, std::string("forged"),
+                                 record::Null{}, record::Null{}, 101560.0, record::Null{}, first, last, n, vb_r, e_r, vb, e,
+                                 std::string("0")};
+  log.append(record::Table::correction_set, set);
+  log.commit();
 }
 
 // Two analyses, the second from noon of the first day (invented data).
@@ -347,6 +406,69 @@ TEST_F(CorrectTest, ACorrectionWithoutItsSetIsFound) {
   bool orphan = false;
   for (const auto& f : v.findings) orphan |= f.kind == "bad_correction" && f.table == "interval" && f.seq == out.first_seq + 2;
   EXPECT_TRUE(orphan);  // first_seq is the correcting configuration, then its event, then the intervals
+}
+
+// A correction recomputes; it cannot change what was measured. A forged
+// set that scales a record's line volume (registers and set totals made to
+// add up, hashes valid) is found.
+TEST_F(CorrectTest, ACorrectionThatChangesTheMeasuredVolumeIsFound) {
+  const std::int64_t seq = q("SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 10");
+  forge_set(file, {seq}, [](std::vector<record::Value>& v, auto col) {
+    for (const char* c : {"V_ind_m3", "V_f_m3", "I_m3_Pa_per_K", "V_b_m3", "E_MJ", "mass_kg"})
+      v[col(c)] = std::get<double>(v[col(c)]) * 1.01;
+    v[col("V_f_um3")] = record::to_register(std::get<double>(v[col("V_f_m3")]), record::volume_quantum_m3);
+    v[col("V_b_um3")] = record::to_register(std::get<double>(v[col("V_b_m3")]), record::volume_quantum_m3);
+    v[col("E_J")] = record::to_register(std::get<double>(v[col("E_MJ")]), 1e-6);
+    v[col("mass_mg")] = record::to_register(std::get<double>(v[col("mass_kg")]), record::mass_quantum_kg);
+  });
+  const auto v = verify();
+  bool found = false;
+  for (const auto& f : v.findings) {
+    found |= f.kind == "bad_correction" && f.detail.find("differs from the record it replaces") != std::string::npos;
+    EXPECT_NE(f.kind, "changed") << f.detail;  // the chain itself holds: only the content check finds it
+  }
+  EXPECT_TRUE(found);
+}
+
+// Two corrections of one record would count it twice in every corrected total.
+TEST_F(CorrectTest, TwoCorrectionsOfOneRecordAreFound) {
+  const std::int64_t seq = q("SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 10");
+  forge_set(file, {seq, seq}, [](std::vector<record::Value>&, auto) {});
+  const auto v = verify();
+  bool found = false;
+  for (const auto& f : v.findings) found |= f.kind == "bad_correction" && f.detail.find("replaced by 2 corrections") != std::string::npos;
+  EXPECT_TRUE(found);
+}
+
+// A change that would stop the conversion (the method refuses the gas) is
+// refused, not written as intervals with no converted volume.
+TEST_F(CorrectTest, AChangeThatConvertsNothingIsRefused) {
+  auto r = request();
+  r.change.method = "refusing_test_gas";
+  try {
+    (void)audit::write_correction_set(file, r, test_methods());
+    ADD_FAILURE() << "a correction that converts nothing was written";
+  } catch (const io::InputError& e) {
+    EXPECT_NE(std::string(e.what()).find("interval seq"), std::string::npos) << e.what();
+  }
+  EXPECT_EQ(rows_digest(head_before), hashes_before);
+  EXPECT_EQ(q("SELECT count(*) FROM interval WHERE corrects_seq IS NOT NULL"), 0);
+}
+
+// Never on top of a broken chain.
+TEST_F(CorrectTest, ALogThatDoesNotVerifyIsNotCorrected) {
+  ASSERT_EQ(testing::run_shell(file, "DROP TRIGGER interval_no_update; UPDATE interval SET V_b_m3 = V_b_m3 + 1 WHERE seq = (SELECT "
+                                     "min(seq) + 5 FROM interval)"),
+            0);
+  auto r = request();
+  r.change.base_p_Pa = 101560.0;
+  try {
+    (void)audit::write_correction_set(file, r, test_methods());
+    ADD_FAILURE() << "a correction set was written onto a broken chain";
+  } catch (const io::InputError& e) {
+    EXPECT_NE(std::string(e.what()).find("a log that verifies"), std::string::npos) << e.what();
+  }
+  EXPECT_EQ(q("SELECT count(*) FROM interval WHERE corrects_seq IS NOT NULL"), 0);
 }
 
 }  // namespace

@@ -158,6 +158,27 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   AuditResult res;
   sqlite3* db = log.db();
 
+  // 0. A what-if asks for something this log and build can do.
+  if (opt.what_if.method && !(methods ? methods(*opt.what_if.method) : nullptr))
+    throw io::InputError("what-if method", *opt.what_if.method, "a line method of this build (gerg2008, detail, sgerg88, ...)");
+  if (opt.what_if.analysis_seq) {
+    const std::string seq = std::to_string(*opt.what_if.analysis_seq);
+    Stmt a(db, "SELECT point FROM gas_analysis WHERE seq = ?");
+    a.bind(1, *opt.what_if.analysis_seq);
+    if (!a.step()) throw io::InputError("what-if analysis", seq, "the seq of a gas_analysis record of the log");
+    const std::string apoint = a.text(0);
+    if (opt.selection.point && *opt.selection.point != apoint)
+      throw io::InputError("what-if analysis", seq, "an analysis of point " + *opt.selection.point + " (this one is of point " + apoint + ")");
+    if (!opt.selection.point) {
+      Stmt o(db, "SELECT point FROM interval WHERE point <> ? LIMIT 1");
+      o.bind(1, std::string_view(apoint));
+      if (o.step())
+        throw io::InputError("what-if analysis", seq,
+                             "an analysis of the point selected with --point (this one is of point " + apoint + "; the log also has point " +
+                                 o.text(0) + ")");
+    }
+  }
+
   // 1. The chain and the totals (the verifier), on a second connection in a
   // second thread while this one replays (both only read the file).
   record::VerifyResult v;
@@ -388,8 +409,6 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   runs.close_all();
   if (opt.progress) opt.progress(progress_done, progress_done);
   if (opt.what_if.any()) {
-    if (opt.what_if.analysis_seq && !rp.analyses().count(*opt.what_if.analysis_seq))
-      throw io::InputError("what-if analysis", std::to_string(*opt.what_if.analysis_seq), "the seq of a gas_analysis record of the log");
     Replayer w(log, what_if_methods, {}, opt.what_if);
     w.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
       if (!corrected.count(iv.seq)) add_to_totals(res.what_if, iv, r);

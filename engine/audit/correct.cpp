@@ -14,7 +14,9 @@
 #include "record/interval_calc.hpp"
 #include "record/sql.hpp"
 #include "record/tables.hpp"
+#include "record/quantities.hpp"
 #include "record/timeutil.hpp"
+#include "record/verify.hpp"
 
 namespace zcorr::audit {
 namespace {
@@ -58,7 +60,7 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
   using record::Table;
   using record::Value;
   if (req.point.empty()) throw io::InputError("--point", "", "the measurement point to correct");
-  if (req.reason.find_first_not_of(" \t") == std::string::npos)
+  if (req.reason.find_first_not_of(" \t\r\n") == std::string::npos)
     throw io::InputError("--reason", req.reason, "a reason for the correction (it goes into every correcting record)");
   if (!req.change.any())
     throw io::InputError("correction", "no change", "at least one of --method, --base-T, --base-p, --analysis");
@@ -74,6 +76,15 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
   // its snapshot does not see the set while it is being written.
   record::Log writer(file, {record::OpenMode::writer, record::Durability::full, false});
   record::Log reader(file, {record::OpenMode::read_only});
+  {  // never on top of a broken chain or totals that do not add up
+    const auto v = record::verify_log(reader, 1);
+    if (v.findings_total > 0) {
+      const auto& f = v.findings.front();
+      throw io::InputError("--db", file.string(),
+                           "a log that verifies (zcorr verify finds " + std::to_string(v.findings_total) + " problem(s), first " +
+                               f.kind + " at " + f.table + " seq " + std::to_string(f.seq) + "); a correction set is not written onto it");
+    }
+  }
   Replayer rp(reader, methods, {}, req.change);
 
   if (req.change.analysis_seq) {
@@ -144,10 +155,15 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
       if (!r.replayed)
         throw io::InputError("interval seq " + std::to_string(iv.seq), record::format_time_utc(iv.start_utc_s),
                              "an interval the replay can recompute (" + r.why_not + ")");
+      const std::string where = "interval seq " + std::to_string(iv.seq) + " (" + record::format_time_utc(iv.start_utc_s) + ")";
       if ((r.flags & record::iflag::calc_failed) && !(iv.flags & record::iflag::calc_failed))
-        throw io::InputError("interval seq " + std::to_string(iv.seq), r.calc_status,
-                             "a state the method computes (it refuses the averaged state of " +
-                                 record::format_time_utc(iv.start_utc_s) + ")");
+        throw io::InputError(where, r.calc_status, "a state the method computes (it refuses the averaged state)");
+      if ((r.flags & record::iflag::no_analysis) && !(iv.flags & record::iflag::no_analysis))
+        throw io::InputError(where, r.calc_status, "a gas analysis the method can use (the recomputation would convert nothing)");
+      if (iv.V_b_um3 > 0 && r.V_b_um3 == 0)
+        throw io::InputError(where, r.calc_status,
+                             "a recomputation that converts volume (the record converted " + record::decimal(iv.V_b_um3, 6) +
+                                 " m3, the recomputation none)");
 
       std::int64_t config_seq = iv.config_seq;
       if (config_changes) {
@@ -201,7 +217,10 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
       row[i_rV_b] = r.V_b_um3;
       row[i_rE] = r.E_J;
       row[i_rm] = r.mass_mg;
-      row[i_flags] = (iv.flags & ~method_bits) | (r.flags & method_bits);
+      // The fault volume stays as logged, and so do the bits that say why.
+      const std::int64_t kept = iv.V_fault_um3 > 0 ? (iv.flags & (record::iflag::calc_failed | record::iflag::no_analysis)) : 0;
+      row[i_flags] = (iv.flags & ~method_bits) | (r.flags & method_bits) | kept;
+      if (r.V_b_um3 == 0 && iv.V_f_um3 > 0) ++out.unconverted;
       row[i_status] = r.calc_status;
       row[i_method] = req.change.method.value_or(iv.method);
       row[i_version] = std::string(record::engine_version());

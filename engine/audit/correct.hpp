@@ -17,8 +17,13 @@
 //
 // Refused (io::InputError, nothing written): no reason, no change, no
 // interval to correct, an unknown method, an analysis that is not a
-// gas_analysis record of the point, an interval the replay cannot recompute,
-// a state the method refuses that it did not refuse as logged.
+// gas_analysis record of the point, a log that does not verify, an interval
+// the replay cannot recompute, a state the method refuses or an analysis it
+// cannot use where the record had neither problem, a recomputation that
+// converts nothing where the record converted volume.
+// An interval whose conversion was stopped as logged (fault volume) keeps
+// its fault volume and the flags that say why: the log has no samples to
+// convert it from; CorrectionOutcome::unconverted counts them.
 #pragma once
 
 #include <cstdint>
@@ -45,6 +50,7 @@ struct CorrectionOutcome {
   CorrectionSetSummary set;     // seq = the correction_set record
   std::int64_t first_seq = 0;   // first record written
   std::int64_t configs = 0;     // correcting configurations written
+  std::int64_t unconverted = 0; // intervals with line volume and, as logged, none converted (they stay so)
 };
 
 // Opens the log for writing (the single writer; it must exist) and appends the set.

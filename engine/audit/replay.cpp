@@ -203,12 +203,25 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.Hs = c.Hs_MJ_per_m3;
   r.rho_f = c.rho_f_kg_per_m3;
   if (via_integral && gas_.usable) {
+    if (!std::isfinite(iv.I) && V_conv > record::volume_quantum_m3) {
+      // Converted volume without its integral value: nothing to rescale.
+      IntervalReplay none;
+      none.why_not = "it has converted volume but no integral value (I_m3_Pa_per_K)";
+      return none;
+    }
     double I = std::isfinite(iv.I) ? iv.I : 0.0;
     double mass = iv.mass_kg;
     const bool z_f_changes = what_if_.method || what_if_.analysis_seq;
     if (z_f_changes && std::isfinite(iv.Z_f) && std::isfinite(c.Z_f) && c.Z_f != 0) I *= iv.Z_f / c.Z_f;
+    // mass = sum rho_i V_i = (M / R) I, and M / R = rho Z T / p at any state
+    // of the gas (the method's own rho, Z): so the new mass follows from the
+    // new I and the new method's density at the averages.
     if (z_f_changes)
-      mass = std::isfinite(iv.rho_f) && std::isfinite(c.rho_f_kg_per_m3) && iv.rho_f != 0 ? mass * c.rho_f_kg_per_m3 / iv.rho_f : nan_v;
+      mass = std::isfinite(c.rho_f_kg_per_m3) && std::isfinite(c.Z_f) && iv.p_avg_Pa > 0
+                 ? I * c.rho_f_kg_per_m3 * c.Z_f * iv.T_avg_K / iv.p_avg_Pa
+                 : nan_v;
+    // The recorder stores mass / V_conv as the line density of a per_sample interval.
+    if (iv.integration == "per_sample" && V_conv > 0 && std::isfinite(mass)) r.rho_f = mass / V_conv;
     r.I = std::isfinite(iv.I) ? I : nan_v;
     r.V_b_m3 = I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
     r.C = V_conv > 0 && I > 0 ? r.V_b_m3 / V_conv : c.C;

@@ -618,6 +618,10 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
     totals_row(o, "base volume, m\u00b3", r.V_b_um3_as_recorded, r.V_b_um3);
     totals_row(o, "energy, MJ", r.E_J_as_recorded, r.E_J);
     o << "</tbody></table>";
+    if (std::any_of(r.corrections.begin(), r.corrections.end(), [](const CorrectionSetSummary& c) { return c.change.find("base_") != std::string::npos; }))
+      o << "<p class=\"small\">A correction set here changes the base conditions: its corrected volume is stated at other base "
+           "conditions than the volume as first recorded, so the volume difference is mostly that change of reference, not "
+           "more or less gas. The energy does not depend on the base conditions and compares directly.</p>";
   }
   o << "</section>";
 

@@ -1,6 +1,7 @@
 // zcorr audit report: one self-contained HTML5 file with the audit's totals,
-// findings, the intervals over the recalculation bar and two charts per point
-// (replay deviation and base volume over time), drawn here as inline SVG.
+// findings, the intervals over the recalculation bar and charts per point
+// (replay deviation and base volume over time, and what the correction sets
+// changed when there are any), drawn here as inline SVG.
 //
 // The file needs nothing outside itself: inline CSS, inline SVG, no fonts,
 // images or scripts from anywhere else (a Content-Security-Policy of
@@ -31,7 +32,7 @@ namespace zcorr::audit {
 struct ReportBucket {
   std::int64_t intervals = 0;           // every interval that started in the bucket
   std::int64_t effective = 0;           // of which not replaced by a correction
-  std::int64_t replayed = 0;            // of which the replay recomputed (effective or not)
+  std::int64_t replayed = 0;            // of which the replay recomputed (the audit recomputes effective intervals only)
   std::int64_t not_comparable = 0;      // replayed, but a deviation is infinite (one side has no figure)
   std::int64_t over_bar = 0;            // replayed with a finite deviation beyond the recalculation bar
   std::int64_t V_b_um3_logged = 0;      // effective intervals, as logged

@@ -19,7 +19,7 @@ std::vector<QuantityRecord> read_quantities(const Log& log, const std::string& p
   }
   Stmt eff(log.db(),
            "SELECT coalesce(sum(V_b_um3), 0), coalesce(sum(E_J), 0), coalesce(sum(mass_mg), 0) FROM interval i WHERE point = ?1 AND "
-           "start_utc_s >= ?2 AND end_utc_s <= ?3 AND NOT EXISTS (SELECT 1 FROM interval c WHERE c.corrects_seq = i.seq)");
+           "start_utc_s >= ?2 AND start_utc_s < ?3 AND end_utc_s <= ?3 AND NOT EXISTS (SELECT 1 FROM interval c WHERE c.corrects_seq = i.seq)");
   while (s.step()) {
     QuantityRecord q;
     q.seq = s.i64(0);

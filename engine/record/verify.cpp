@@ -152,7 +152,15 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
   struct SetSums {
     std::int64_t first = 0, n = 0, V_b = 0, E = 0, V_b_replaced = 0, E_replaced = 0;
   } set_sums;
-  Stmt replaced_q(db, "SELECT V_b_um3, E_J FROM interval WHERE seq = ?");
+  // What a correcting interval must carry over from the record it replaces:
+  // the measured inputs (only the calculation may change).
+  static constexpr std::string_view carried[] = {"point", "start_utc_s", "end_utc_s", "flow_time_s", "alarm_time_s", "samples",
+                                                 "samples_used", "averaging", "integration", "p_avg_Pa", "T_avg_K", "pulses",
+                                                 "V_ind_m3", "V_f_m3", "V_f_um3", "V_fault_um3"};
+  std::string replaced_sql = "SELECT V_b_um3, E_J";
+  for (auto c : carried) replaced_sql += ", " + std::string(c);
+  Stmt replaced_q(db, replaced_sql + " FROM interval WHERE seq = ?");
+  std::string set_point;
   const auto& cc = cols::correction_set;
   const std::size_t c_first = col_index(cc, "first_seq"), c_last = col_index(cc, "last_seq"), c_n = col_index(cc, "intervals"),
                     c_vbr = col_index(cc, "V_b_um3_replaced"), c_er = col_index(cc, "E_J_replaced"),
@@ -195,10 +203,19 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
         ++set_sums.n;
         set_sums.V_b += vb;
         set_sums.E += e;
+        if (set_sums.n == 1) set_point = as_text(r.values[i_point]);
+        else if (as_text(r.values[i_point]) != set_point)
+          report(r, "bad_correction", "a correction set's intervals are of more than one point");
         replaced_q.bind(1, as_i64(r.values[i_corr]));
         if (replaced_q.step()) {
           set_sums.V_b_replaced += replaced_q.i64(0);
           set_sums.E_replaced += replaced_q.i64(1);
+          for (std::size_t k = 0; k < std::size(carried); ++k)
+            if (replaced_q.value(static_cast<int>(2 + k)) != r.values[col_index(ic, carried[k])]) {
+              report(r, "bad_correction", std::string(carried[k]) + " differs from the record it replaces (seq " +
+                                              std::to_string(as_i64(r.values[i_corr])) + "): a correction recomputes, it does not change what was measured");
+              break;
+            }
         }
         replaced_q.reset();
         return;
@@ -235,6 +252,8 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       std::string d;
       const auto first = as_i64(r.values[c_first]), last = as_i64(r.values[c_last]);
       if (as_text(r.values[c_reason]).empty()) d = "a correction set without a reason";
+      else if (set_sums.n > 0 && as_text(r.values[col_index(cc, "point")]) != set_point)
+        d = "its point " + as_text(r.values[col_index(cc, "point")]) + " is not the point of its intervals (" + set_point + ")";
       else if (first < 1 || first > last || last >= r.seq || (set_sums.n > 0 && set_sums.first < first))
         d = "its record range " + std::to_string(first) + ".." + std::to_string(last) + " does not hold the corrections before it";
       else if (as_i64(r.values[c_n]) != set_sums.n)
@@ -297,7 +316,18 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     prev_time = row_time(r);
     if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
   }
-  if (set_sums.n > 0) {  // correcting intervals no correction set accounts for
+  {  // a record replaced by more than one correction is counted twice in any corrected total
+    Stmt d(db, "SELECT corrects_seq, count(*), max(seq) FROM interval WHERE corrects_seq IS NOT NULL GROUP BY corrects_seq HAVING count(*) > 1 "
+               "ORDER BY corrects_seq");
+    while (d.step()) {
+      ++out.findings_total;
+      if (out.findings.size() < max_findings)
+        out.findings.push_back({"interval", d.i64(2), 0, "bad_correction",
+                                "interval seq " + std::to_string(d.i64(0)) + " is replaced by " + std::to_string(d.i64(1)) +
+                                    " corrections (a correction of a correction names the correction)"});
+    }
+  }
+  if (set_sums.n > 0 && has_table(out.schema_version, Table::correction_set)) {  // correcting intervals no correction set accounts for
     ++out.findings_total;
     if (out.findings.size() < max_findings)
       out.findings.push_back({"interval", set_sums.first, 0, "bad_correction",

@@ -44,5 +44,8 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
                  MATCH "what-if    10080 of 10080 intervals recomputed: base volume 12772369.578410 m3 logged, 12767[0-9.]+ m3 what-if.*nothing found")
   zcorr_cli_test(NAME audit_demo_what_if_bad_analysis ARGS audit --db ${DEMO_DB} --what-if-analysis 3 EXPECT_EXIT 2
                  MATCH "the seq of a gas_analysis record")
-  set_tests_properties(cli.audit_demo_what_if cli.audit_demo_what_if_bad_analysis PROPERTIES DEPENDS cli.demo_week)
+  zcorr_cli_test(NAME audit_demo_what_if_bad_method ARGS audit --db ${DEMO_DB} --what-if-method no_such_method EXPECT_EXIT 2
+                 MATCH "what-if method: 'no_such_method' is not accepted; a line method of this build")
+  set_tests_properties(cli.audit_demo_what_if cli.audit_demo_what_if_bad_analysis cli.audit_demo_what_if_bad_method
+                       PROPERTIES DEPENDS cli.demo_week)
 endif()

@@ -13,7 +13,16 @@ zcorr_cli_test(NAME audit_report_csv ARGS audit --db ${REPORT_LOGS}/tampered.db 
 zcorr_cli_test(NAME audit_report_unwritable ARGS audit --db ${REPORT_LOGS}/tampered.db --report ${REPORT_DIR}/no-such-folder/r.html
                EXPECT_EXIT 2 MATCH "zcorr audit: --report: '.*no-such-folder/r.html' is not accepted; a file that can be written")
 zcorr_cli_test(NAME audit_report_folder ARGS audit --db ${REPORT_LOGS}/tampered.db --report ${REPORT_DIR} EXPECT_EXIT 2
-               MATCH "--report: .* a file that can be written")
+               MATCH "--report: .* a file, not a folder")
+# Never the log itself, nor another SQLite file: the report would destroy it.
+zcorr_cli_test(NAME audit_report_onto_the_log ARGS audit --db ${REPORT_LOGS}/tampered.db --report ${REPORT_LOGS}/tampered.db EXPECT_EXIT 2
+               MATCH "--report: .* a file other than the log given with --db")
+zcorr_cli_test(NAME audit_report_onto_another_log ARGS audit --db ${REPORT_LOGS}/tampered.db --report ${REPORT_LOGS}/clean.db EXPECT_EXIT 2
+               MATCH "--report: .* not an SQLite database")
+zcorr_cli_test(NAME audit_report_log_still_verifies ARGS verify --db ${REPORT_LOGS}/clean.db MATCH "clean")
+set_tests_properties(cli.audit_report_onto_the_log cli.audit_report_onto_another_log cli.audit_report_log_still_verifies
+                     PROPERTIES FIXTURES_REQUIRED cli_logs)
+set_tests_properties(cli.audit_report_log_still_verifies PROPERTIES DEPENDS "cli.audit_report_onto_the_log;cli.audit_report_onto_another_log")
 # An unreadable log exits 2 and leaves no report file behind.
 add_test(NAME cli.audit_report_unreadable_log
          COMMAND sh -c "rm -f unreadable.html; $<TARGET_FILE:zcorr> audit --db ${REPORT_LOGS}/garbage.db --report unreadable.html; rc=$?; test $rc -eq 2 && test ! -e unreadable.html && echo 'exit 2, no report'"
