@@ -7,10 +7,13 @@
 //   build/bench/audit_bench
 // The log is recorded once (detail method when built in, else GERG-2008) to
 // a temporary file and kept between runs; the recording is not timed.
-// Measured (Release, GERG-2008, 2 shared cores): 2.97 s per audit when the
-// machine was otherwise quiet; 3.6-3.8 s with a load average of 3 from other
-// builds. The replay thread is the longer of the two (about half of it is
-// the GERG-2008 state at the averages); the chain check runs beside it.
+// Measured (Release, 2 cores, quiet machine): 1.88 s per audit with the
+// detail method, 2.09 s with GERG-2008 (2.8-4.0 s while a compiler ran on
+// both cores). The replay thread is the longer of the two (about half of it
+// is the method's state at the averages); the chain check runs beside it.
+// Peak resident memory of `zcorr audit` on the year: 15 MB. A correction set
+// over the year takes 8.1 s (verify first, then one transaction); the
+// corrected log (1,051,200 interval records) audits in 4.3 s.
 #include <benchmark/benchmark.h>
 
 #include <chrono>
