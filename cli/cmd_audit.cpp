@@ -61,16 +61,8 @@ int run_audit_cmd(const AuditCliOptions& o) {
   using namespace zcorr::audit;
   AuditOptions ao;
   if (!o.point.empty()) ao.selection.point = o.point;
-  if (!o.from.empty()) {
-    const auto t = record::parse_time_utc(o.from);
-    if (!t) throw io::InputError("--from", o.from, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
-    ao.selection.from_utc_s = *t;
-  }
-  if (!o.to.empty()) {
-    const auto t = record::parse_time_utc(o.to);
-    if (!t) throw io::InputError("--to", o.to, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
-    ao.selection.to_utc_s = *t;
-  }
+  if (!o.from.empty()) ao.selection.from_utc_s = parse_utc_option("--from", o.from);
+  if (!o.to.empty()) ao.selection.to_utc_s = parse_utc_option("--to", o.to);
   if (!o.contract.empty()) ao.contract = load_contract(o.contract);
   if (!(o.max_age_h > 0)) throw io::InputError("--max-analysis-age", std::to_string(o.max_age_h), "hours > 0");
   if (!(o.tolerance_ppm >= 0)) throw io::InputError("--tolerance-ppm", std::to_string(o.tolerance_ppm), "ppm >= 0");

@@ -20,17 +20,11 @@ struct CorrectCliOptions {
   std::int64_t analysis = 0;
 };
 
-std::int64_t utc_option(const std::string& name, const std::string& v) {
-  const auto t = record::parse_time_utc(v);
-  if (!t) throw io::InputError(name, v, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
-  return *t;
-}
-
 int run_correct(const CorrectCliOptions& o) {
   audit::CorrectionRequest req;
   req.point = o.point;
-  if (!o.from.empty()) req.from_utc_s = utc_option("--from", o.from);
-  if (!o.to.empty()) req.to_utc_s = utc_option("--to", o.to);
+  if (!o.from.empty()) req.from_utc_s = parse_utc_option("--from", o.from);
+  if (!o.to.empty()) req.to_utc_s = parse_utc_option("--to", o.to);
   if (req.from_utc_s && req.to_utc_s && *req.from_utc_s >= *req.to_utc_s)
     throw io::InputError("--to", o.to, "a time after --from (" + o.from + ")");
   if (!o.method.empty()) req.change.method = o.method;

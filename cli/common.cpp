@@ -5,6 +5,7 @@
 #include "core/components.hpp"
 #include "io/input_error.hpp"
 #include "io/status_text.hpp"
+#include "record/timeutil.hpp"
 
 namespace zcorr::cli {
 
@@ -43,6 +44,12 @@ io::ParsedComposition GasOptions::load() const {
 }
 
 std::string status_text(const Status& s) { return io::status_text(s); }
+
+std::int64_t parse_utc_option(const std::string& option, const std::string& value) {
+  const auto t = record::parse_time_utc(value);
+  if (!t) throw io::InputError(option, value, "a UTC time such as 2026-03-02T06:00:00Z or Unix seconds");
+  return *t;
+}
 
 int guarded(const char* command, const std::function<int()>& body) {
   try {

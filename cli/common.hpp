@@ -4,6 +4,7 @@
 
 #include <CLI/CLI.hpp>
 
+#include <cstdint>
 #include <iosfwd>
 #include <optional>
 #include <string>
@@ -42,6 +43,9 @@ struct GasOptions {
 
 // "ok", or "ok;range=expanded;extrapolated", or "invalid_pressure;...".
 [[nodiscard]] std::string status_text(const Status& s);
+
+// A --from / --to style option: UTC time text or Unix seconds. Throws io::InputError naming the option.
+[[nodiscard]] std::int64_t parse_utc_option(const std::string& option, const std::string& value);
 
 // Runs `body`, turning io::InputError and other exceptions into a one-line
 // message on standard error and exit code 2.

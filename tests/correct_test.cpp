@@ -48,11 +48,7 @@ template <class Edit>
 void forge_set(const std::filesystem::path& file, std::vector<std::int64_t> originals, Edit edit) {
   record::Log log(file, {record::OpenMode::writer});
   const std::span<const std::string_view> ic = record::cols::interval;
-  auto col = [&](std::string_view n) {
-    for (std::size_t i = 0; i < ic.size(); ++i)
-      if (ic[i] == n) return i;
-    return ic.size();
-  };
+  auto col = [&](std::string_view n) { return record::column_index(ic, n); };
   std::string sql = "SELECT ";
   for (std::size_t i = 0; i < ic.size(); ++i) sql += (i ? ", " : "") + std::string(ic[i]);
   log.begin();

@@ -22,9 +22,9 @@ namespace zcorr::audit {
 namespace {
 
 std::size_t col(std::span<const std::string_view> c, std::string_view name) {
-  for (std::size_t i = 0; i < c.size(); ++i)
-    if (c[i] == name) return i;
-  throw std::logic_error("correction set: no column " + std::string(name));
+  const std::size_t i = record::column_index(c, name);
+  if (i == c.size()) throw std::logic_error("correction set: no column " + std::string(name));
+  return i;
 }
 
 std::string num(double v) {

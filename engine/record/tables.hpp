@@ -65,6 +65,13 @@ inline constexpr std::array<TableInfo, table_count> tables{{
     {"correction_set", cols::correction_set, 3},
 }};
 
+// Position of a column in a table's list (columns.size() when absent).
+[[nodiscard]] constexpr std::size_t column_index(std::span<const std::string_view> columns, std::string_view name) noexcept {
+  for (std::size_t i = 0; i < columns.size(); ++i)
+    if (columns[i] == name) return i;
+  return columns.size();
+}
+
 // Whether a log of schema version `version` has the table.
 [[nodiscard]] constexpr bool has_table(int version, Table t) noexcept {
   return version >= tables[static_cast<std::size_t>(t)].since_version;

@@ -8,11 +8,7 @@
 namespace zcorr::record {
 namespace {
 
-constexpr std::size_t col_index(std::span<const std::string_view> c, std::string_view name) {
-  for (std::size_t i = 0; i < c.size(); ++i)
-    if (c[i] == name) return i;
-  return c.size();
-}
+constexpr std::size_t col_index(std::span<const std::string_view> c, std::string_view name) { return column_index(c, name); }
 
 struct Cursor {
   Table table;
