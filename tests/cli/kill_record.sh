@@ -25,7 +25,12 @@ for round in 1 2 3 4; do
   if kill -9 "$pid" 2> /dev/null; then kills=$((kills + 1)); fi
   wait "$pid" 2> /dev/null || true
   if [ -f killed.db ]; then
-    "$zcorr" verify --db killed.db > verify.out || { echo "after kill $round the log does not verify:"; cat verify.out; exit 1; }
+    if ! "$zcorr" verify --db killed.db > verify.out 2>&1; then
+      # Killed before the first transaction committed: the file exists but
+      # holds no schema yet; the next run creates it. Nothing was committed.
+      if [ "$committed" = 0 ] && grep -q "empty database" verify.out; then continue; fi
+      echo "after kill $round the log does not verify:"; cat verify.out; exit 1
+    fi
     n=$(count killed.db | cut -d' ' -f1)
     if [ "$n" -lt "$committed" ]; then echo "after kill $round: $n intervals, $committed were committed before"; exit 1; fi
     committed=$n
