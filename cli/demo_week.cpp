@@ -214,7 +214,12 @@ int run_demo_week(const DemoWeekOptions& o) {
             << std::filesystem::file_size(db) / 1024 << " KiB\n"
             << "verify: " << (v.findings_total == 0 ? "clean" : std::to_string(v.findings_total) + " finding(s)") << ", head seq " << v.last_seq
             << " hash " << to_hex(v.head_hash) << '\n'
-            << "Check it yourself: zcorr verify --db " << db.string() << "\n\n"
+            << "Check it yourself: zcorr verify --db " << db.string() << "\n"
+            << "Audit it (every interval recomputed), with a report to open in a browser:\n"
+            << "  zcorr audit --db " << db.string() << " --report " << (dir / "audit.html").string() << "\n"
+            << "What if the contract's base pressure were 101.56 kPa; then write that as a correction set:\n"
+            << "  zcorr audit --db " << db.string() << " --what-if-base-p \"101.56 kPa\"\n"
+            << "  zcorr correct --db " << db.string() << " --point HF-1 --base-p \"101.56 kPa\" --reason \"contract base pressure\"\n\n"
             << caution_text << '\n';
   return v.findings_total == 0 ? exit_ok : exit_partial;
 }
