@@ -25,6 +25,7 @@
 #include "audit/audit.hpp"
 #include "audit/correct.hpp"
 #include "eval/line_method.hpp"
+#include "bench_samples.hpp"
 #include "record/log.hpp"
 #include "record/recorder.hpp"
 #include "record/timeutil.hpp"
@@ -70,16 +71,7 @@ std::filesystem::path year_log(const char* method = method_name()) {
   opt.batch_intervals = 5000;
   Recorder rec(log, cfg, *line_method, opt);
   rec.add_analyses({analysis(t0)});
-  for (std::int64_t i = 1; i <= n_intervals; ++i) {
-    RawSample s;
-    const double ph = static_cast<double>(i) / 60.0;
-    s.t_utc_s = t0 + i * 60;
-    s.p_Pa = 5.0e6 + 4.0e5 * std::sin(ph);
-    s.T_K = 285.0 + 4.0 * std::cos(0.7 * ph);
-    s.V_ind_m3 = 20.0 + 5.0 * std::sin(1.3 * ph);
-    s.line = i + 1;
-    rec.add_sample(s);
-  }
+  for (std::int64_t i = 1; i <= n_intervals; ++i) rec.add_sample(zcorr::bench::minute_sample(t0, i));
   rec.finish();
   return path;
 }

@@ -17,6 +17,7 @@
 
 #include "support/sample_gases.hpp"
 #include "eval/line_method.hpp"
+#include "bench_samples.hpp"
 #include "record/log.hpp"
 #include "record/recorder.hpp"
 #include "record/timeutil.hpp"
@@ -32,16 +33,7 @@ constexpr std::int64_t n_intervals = 50000;
 std::vector<RawSample> samples(std::int64_t t0) {
   std::vector<RawSample> v;
   v.reserve(n_intervals);
-  for (std::int64_t i = 1; i <= n_intervals; ++i) {
-    RawSample s;
-    const double ph = static_cast<double>(i) / 60.0;
-    s.t_utc_s = t0 + i * 60;
-    s.p_Pa = 5.0e6 + 4.0e5 * std::sin(ph);
-    s.T_K = 285.0 + 4.0 * std::cos(0.7 * ph);
-    s.V_ind_m3 = 20.0 + 5.0 * std::sin(1.3 * ph);
-    s.line = i + 1;
-    v.push_back(s);
-  }
+  for (std::int64_t i = 1; i <= n_intervals; ++i) v.push_back(zcorr::bench::minute_sample(t0, i));
   return v;
 }
 
