@@ -25,6 +25,17 @@ double IntervalReplay::worst_ppm() const noexcept {
   return w;
 }
 
+std::string combustion_used(const WhatIf& w, double recorded_base_T_K) {
+  const std::string recorded(combustion_ref_name(default_combustion_for(recorded_base_T_K)));
+  if (w.combustion) return "combustion reference " + std::string(combustion_ref_name(*w.combustion)) + " for every Hs (changed; recorded " + recorded + ")";
+  if (w.combustion_hold) return "combustion reference " + recorded + " for every Hs (held as recorded)";
+  if (!w.base_T_K) return "combustion reference " + recorded + " (unchanged)";
+  const std::string usual(combustion_ref_name(default_combustion_for(*w.base_T_K)));
+  if (usual == recorded) return "combustion reference " + recorded + " (unchanged)";
+  return "combustion reference " + usual + " for analyses without a stated Hs (ISO 6976, the pairing usual with the new base "
+         "temperature), stated Hs at their own " + recorded + " (--what-if-combustion-ref holds or sets one reference)";
+}
+
 namespace {
 
 // (recomputed - logged) / logged in ppm; both NaN (not computed either way)
@@ -48,7 +59,7 @@ double opt(const record::Stmt& s, int c) { return s.is_null(c) ? nan_v : s.f64(c
 std::string logged_interval_columns() {
   return "seq, point, config_seq, analysis_seq, start_utc_s, end_utc_s, flow_time_s, alarm_time_s, samples, integration, "
          "p_avg_Pa, T_avg_K, V_ind_m3, V_f_m3, Z_f, Z_b, C, I_m3_Pa_per_K, V_b_m3, Hs_MJ_per_m3, E_MJ, V_f_um3, V_b_um3, "
-         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg";
+         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg, Fp, Ft, Fz";
 }
 
 void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
@@ -83,6 +94,9 @@ void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
   iv.corrects_seq = s.is_null(28) ? 0 : s.i64(28);
   iv.rho_f = opt(s, 29);
   iv.mass_kg = opt(s, 30);
+  iv.Fp = opt(s, 31);
+  iv.Ft = opt(s, 32);
+  iv.Fz = opt(s, 33);
 }
 
 Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if)
@@ -154,16 +168,30 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     if (analysis_seq && ait == analyses_.end()) {
       gas_.status = "no_analysis";
     } else if (ait != analyses_.end()) {
-      // The analysis' Hs is stated at the base conditions of the recorded configuration.
+      // The analysis' Hs is stated at the base conditions (and the usual
+      // combustion reference) of the recorded configuration.
       const auto rit = config_root_.find(iv.config_seq);
       const auto root = configs_.find(rit == config_root_.end() ? iv.config_seq : rit->second);
-      const bool rebase = std::isfinite(ait->second.Hs) && root != configs_.end() &&
+      const GasRecord& g = ait->second;
+      std::optional<iso6976::CombustionRef> comb = what_if_.combustion;
+      if (!comb && what_if_.combustion_hold && root != configs_.end()) comb = default_combustion_for(root->second.base_T_K);
+      double Hs_stated = g.Hs;
+      if (std::isfinite(Hs_stated) && comb && root != configs_.end()) {
+        const auto stated_ref = default_combustion_for(root->second.base_T_K);
+        if (*comb != stated_ref) {  // the molar calorific values at the two references, any metering reference
+          const auto mref = metering_ref_for(root->second.base_T_K).value_or(iso6976::MeteringRef::t15C);
+          const auto a = iso6976::properties(g.x, *comb, mref), b = iso6976::properties(g.x, stated_ref, mref);
+          Hs_stated = a.status.ok() && b.status.ok() ? g.Hs * (a.Hs_MJ_per_m3 / b.Hs_MJ_per_m3) : nan_v;
+        }
+      }
+      const bool rebase = std::isfinite(Hs_stated) && root != configs_.end() &&
                           (root->second.base_T_K != cfg.base_T_K || root->second.base_p_Pa != cfg.base_p_Pa);
       double Z_b_stated = nan_v;
-      if (rebase) Z_b_stated = record::prepare_gas(*m, ait->second.x, ait->second.Hs, ait->second.seq, root->second, eval_).Z_b;
-      gas_ = record::prepare_gas(*m, ait->second.x, ait->second.Hs, ait->second.seq, cfg, eval_);
+      if (rebase) Z_b_stated = record::prepare_gas(*m, g.x, Hs_stated, g.seq, root->second, eval_).Z_b;
+      gas_ = record::prepare_gas(*m, g.x, Hs_stated, g.seq, cfg, eval_, comb);
+      if (std::isfinite(g.Hs) && !std::isfinite(Hs_stated)) gas_.Hs_MJ_per_m3 = nan_v;
       if (rebase && gas_.usable)
-        gas_.Hs_MJ_per_m3 = ait->second.Hs * (cfg.base_p_Pa / root->second.base_p_Pa) * (root->second.base_T_K / cfg.base_T_K) *
+        gas_.Hs_MJ_per_m3 = Hs_stated * (cfg.base_p_Pa / root->second.base_p_Pa) * (root->second.base_T_K / cfg.base_T_K) *
                             (Z_b_stated / gas_.Z_b);
     }
   }
@@ -172,18 +200,26 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   record::PointConfig one = cfg;
   one.integration = record::Integration::average_then_correct;
   one.averaging = record::Averaging::time_linear;
-  const double V_fault = static_cast<double>(iv.V_fault_um3) * record::volume_quantum_m3;
-  const double V_ind_f = iv.V_ind_m3 * cfg.meter_factor;
-  double V_conv = V_ind_f - V_fault;
-  if (iv.V_fault_um3 == 0) V_conv = V_ind_f;
-  if (V_conv < 0) V_conv = 0;
+  const bool per_sample = iv.integration == "per_sample";
+  const bool have_state = std::isfinite(iv.p_avg_Pa) && std::isfinite(iv.T_avg_K);
+  const bool logged_I = std::isfinite(iv.I) && iv.I > 0;
+  double V_conv = iv.V_ind_m3 * cfg.meter_factor;
+  if (iv.V_fault_um3 != 0) {
+    // Known from the registers to their resolution; an average_then_correct
+    // interval's own I pins it when the two agree within it.
+    V_conv = std::max(0.0, V_conv - static_cast<double>(iv.V_fault_um3) * record::volume_quantum_m3);
+    if (!per_sample && have_state && logged_I && std::isfinite(iv.Z_f) && iv.p_avg_Pa > 0) {
+      const double from_I = iv.I * iv.T_avg_K * iv.Z_f / iv.p_avg_Pa;
+      if (std::fabs(from_I - V_conv) <= 0.5 * record::volume_quantum_m3 * (1 + 1e-9) + 1e-12 * V_conv) V_conv = from_I;
+    }
+    if (V_conv <= record::volume_quantum_m3 && !logged_I) V_conv = 0;  // nothing converted, as logged
+  }
   record::Sample s;
   s.t_utc_s = iv.end_utc_s;
   s.dt_s = std::max<std::int64_t>(1, iv.end_utc_s - iv.start_utc_s - iv.alarm_time_s);
   s.p_Pa = iv.p_avg_Pa;
   s.T_K = iv.T_avg_K;
   s.V_ind_m3 = cfg.meter_factor != 0 ? V_conv / cfg.meter_factor : 0.0;
-  const bool have_state = std::isfinite(iv.p_avg_Pa) && std::isfinite(iv.T_avg_K);
   if (!have_state) s.V_ind_m3 = 0;
   const record::IntervalResult c = compute_interval(std::span<const record::Sample>(&s, have_state ? 1u : 0u), one, *m, gas_, eval_);
 
@@ -192,36 +228,36 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.Z_f = c.Z_f;
   r.Z_b = c.Z_b;
   r.flags = c.flags;
-  // With part of the interval in alarm, V_conv is known only to the fault
-  // register's resolution (1e-6 m3), which for a nearly all-alarm interval
-  // can be many ppm of V_conv: then the base volume comes from the logged
-  // integral value as for per_sample, and C is not compared.
-  const bool via_integral = iv.integration == "per_sample" || iv.V_fault_um3 != 0;
   r.Fp = c.Fp;
   r.Ft = c.Ft;
   r.Fz = c.Fz;
   r.Hs = c.Hs_MJ_per_m3;
   r.rho_f = c.rho_f_kg_per_m3;
-  if (via_integral && gas_.usable) {
+  if (per_sample && gas_.usable) {
     if (!std::isfinite(iv.I) && V_conv > record::volume_quantum_m3) {
-      // Converted volume without its integral value: nothing to rescale.
       IntervalReplay none;
-      none.why_not = "it has converted volume but no integral value (I_m3_Pa_per_K)";
+      none.why_not = "it has converted volume but no integral value (I_m3_Pa_per_K): its base volume, energy and mass cannot be recomputed";
       return none;
     }
+    // The logged integral rescaled to the recomputed Z_f at the averages. The
+    // Z_f behind the logged I is the logged Z_f, or Z_b / Fz as logged where
+    // that one is the one the recomputation confirms (one altered factor).
     double I = std::isfinite(iv.I) ? iv.I : 0.0;
-    double mass = iv.mass_kg;
-    const bool z_f_changes = what_if_.method || what_if_.analysis_seq;
-    if (z_f_changes && std::isfinite(iv.Z_f) && std::isfinite(c.Z_f) && c.Z_f != 0) I *= iv.Z_f / c.Z_f;
+    double Z_f_logged = iv.Z_f;
+    const double Z_f_from_Fz = std::isfinite(iv.Fz) && iv.Fz > 0 && std::isfinite(iv.Z_b) ? iv.Z_b / iv.Fz : nan_v;
+    if (std::isfinite(Z_f_from_Fz) && std::isfinite(c.Z_f) &&
+        (!std::isfinite(Z_f_logged) || std::fabs(Z_f_from_Fz - c.Z_f) < std::fabs(Z_f_logged - c.Z_f)))
+      Z_f_logged = Z_f_from_Fz;
+    if (std::isfinite(Z_f_logged) && Z_f_logged > 0 && std::isfinite(c.Z_f) && c.Z_f > 0) I *= Z_f_logged / c.Z_f;
+    r.estimated = true;
     // mass = sum rho_i V_i = (M / R) I, and M / R = rho Z T / p at any state
-    // of the gas (the method's own rho, Z): so the new mass follows from the
-    // new I and the new method's density at the averages.
-    if (z_f_changes)
-      mass = std::isfinite(c.rho_f_kg_per_m3) && std::isfinite(c.Z_f) && iv.p_avg_Pa > 0
-                 ? I * c.rho_f_kg_per_m3 * c.Z_f * iv.T_avg_K / iv.p_avg_Pa
-                 : nan_v;
+    // of the gas (the method's own rho, Z): the mass follows from I and the
+    // method's density at the averages.
+    const double mass = std::isfinite(c.rho_f_kg_per_m3) && std::isfinite(c.Z_f) && iv.p_avg_Pa > 0
+                            ? I * c.rho_f_kg_per_m3 * c.Z_f * iv.T_avg_K / iv.p_avg_Pa
+                            : (I == 0 ? 0.0 : nan_v);
     // The recorder stores mass / V_conv as the line density of a per_sample interval.
-    if (iv.integration == "per_sample" && V_conv > 0 && std::isfinite(mass)) r.rho_f = mass / V_conv;
+    if (V_conv > 0 && std::isfinite(mass)) r.rho_f = mass / V_conv;
     r.I = std::isfinite(iv.I) ? I : nan_v;
     r.V_b_m3 = I * (cfg.base_T_K * c.Z_b / cfg.base_p_Pa);
     r.C = V_conv > 0 && I > 0 ? r.V_b_m3 / V_conv : c.C;
@@ -240,7 +276,8 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
   r.E_J = record::to_register(r.E_MJ, 1e-6);
   r.dZ_f_ppm = ppm(r.Z_f, iv.Z_f);
   r.dZ_b_ppm = ppm(r.Z_b, iv.Z_b);
-  r.dC_ppm = iv.V_fault_um3 != 0 && r.V_b_m3 != 0 ? nan_v : ppm(r.C, iv.C);
+  // A per_sample interval partly in alarm: V_conv only to the fault register's resolution.
+  r.dC_ppm = per_sample && iv.V_fault_um3 != 0 && r.V_b_m3 != 0 ? nan_v : ppm(r.C, iv.C);
   r.dV_b_ppm = ppm(r.V_b_m3, iv.V_b_m3);
   r.dE_ppm = std::isfinite(iv.E_MJ) || std::isfinite(r.E_MJ) ? ppm(r.E_MJ, iv.E_MJ) : nan_v;
   // A register of zero both ways is agreement whatever the factors say.

@@ -14,13 +14,22 @@
 //    the converted line volume V_conv = V_ind * meter_factor - V_fault, so
 //    Z_f, Fp, Ft, Fz and, for average_then_correct, V_b and E are the
 //    recorder's figures again;
-//  * per_sample integration: Z_f at the averages and Z_b are recomputed; the
-//    base volume is V_b = I * T_b * Z_b / p_b with the logged integral value
-//    I (the samples behind I are not kept in the log, so I itself cannot be
-//    recomputed; what follows from it can).
-//  * an interval partly in alarm (V_fault > 0): V_conv is known only to the
-//    fault register's resolution, so V_b comes from the logged I as for
-//    per_sample and C is not compared.
+//  * per_sample integration: the samples behind the integral value I are not
+//    kept in the log, so I is estimated from the averages: the logged I
+//    rescaled by Z_f(logged) / Z_f(recomputed) at the averages, with Z_f
+//    (logged) the one of the logged Z_f and Z_b / Fz that the recomputation
+//    confirms (a record with one altered factor keeps the other), and then
+//    V_b = I * T_b * Z_b / p_b with Z_b recomputed. The estimate is exact
+//    when the difference lies in the logged figures (a logged Z_f, Fz, I or
+//    V_b that does not follow from the inputs); for a change of gas or
+//    method it is first order, its error at most about |difference| times
+//    the relative spread of the line pressure within the interval. Such a
+//    replay is marked `estimated`.
+//  * an interval partly in alarm (V_fault > 0): V_conv = V_ind * meter_factor
+//    - V_fault is known from the registers to 1e-6 m3; the logged I of an
+//    average_then_correct interval pins it exactly (V_conv = I T_avg Z_f /
+//    p_avg) when the two agree within that resolution, and the registers'
+//    V_conv is used when they do not.
 // The comparison is relative, in ppm of the logged value. The industry's
 // recalculation bar is 50 ppm of the logged quantity (API MPMS 21.1, as
 // summarised in the project's standards notes).
@@ -39,6 +48,7 @@
 #include <string>
 
 #include "eval/line_method.hpp"
+#include "methods/iso6976.hpp"
 #include "record/config.hpp"
 #include "record/interval_calc.hpp"
 #include "record/log.hpp"
@@ -67,7 +77,7 @@ struct LoggedInterval {
   std::int64_t start_utc_s = 0, end_utc_s = 0, flow_time_s = 0, alarm_time_s = 0, samples = 0;
   std::string integration;
   double p_avg_Pa = nan_v, T_avg_K = nan_v, V_ind_m3 = 0, V_f_m3 = 0;
-  double Z_f = nan_v, Z_b = nan_v, C = nan_v, I = nan_v, V_b_m3 = 0, Hs = nan_v, E_MJ = nan_v;
+  double Z_f = nan_v, Z_b = nan_v, Fp = nan_v, Ft = nan_v, Fz = nan_v, C = nan_v, I = nan_v, V_b_m3 = 0, Hs = nan_v, E_MJ = nan_v;
   std::int64_t V_f_um3 = 0, V_b_um3 = 0, V_fault_um3 = 0, E_J = 0, flags = 0;
   std::string calc_status, method;
   std::int64_t corrects_seq = 0;  // 0 = not a correction
@@ -86,6 +96,9 @@ struct GasRecord {
 struct IntervalReplay {
   bool replayed = false;
   std::string why_not;  // when not replayed
+  // The base volume, energy and mass are an estimate from the averages (a
+  // per_sample interval, see above), not a recomputation from the samples.
+  bool estimated = false;
   double Z_f = nan_v, Z_b = nan_v, C = nan_v, V_b_m3 = 0, E_MJ = nan_v;
   std::int64_t V_b_um3 = 0, E_J = 0;
   // What a correcting record needs besides: the integral value (rescaled
@@ -115,15 +128,32 @@ struct ReplayTotals {
 // configuration), so at other base conditions it is re-based by the ratio of
 // the gas's molar densities, p_b / (Z_b T_b), both by the line method; the
 // energy then does not depend on the base conditions (only the volume
-// does). The combustion reference temperature of Hs is not changed. An
-// analysis without Hs gets it from ISO 6976 at the new base conditions, as
-// the recorder does. zcorr correct writes the result as a correction set.
+// does). The combustion reference (t1 of ISO 6976) is a reference of its
+// own, and a what-if states which one it uses:
+//  * by default (combustion unset, combustion_hold false) a stated Hs keeps
+//    the reference it was stated at, and an analysis without Hs gets it from
+//    ISO 6976 at the new base conditions with the combustion reference
+//    usually paired with the new base temperature (15 degC -> 15 degC,
+//    60 degF -> 60 degF, 0 degC -> 25 degC), as the recorder does;
+//  * combustion_hold: every Hs at the combustion reference of the recorded
+//    configuration (the pairing of its base temperature);
+//  * combustion: every Hs at that reference; a stated Hs is converted from
+//    the recorded configuration's reference by the ratio of the molar
+//    calorific values of the analysis (ISO 6976).
+// zcorr correct writes the result as a correction set.
 struct WhatIf {
   std::optional<std::string> method;
   std::optional<double> base_T_K, base_p_Pa;
   std::optional<std::int64_t> analysis_seq;  // use this gas_analysis record for every interval
-  [[nodiscard]] bool any() const noexcept { return method || base_T_K || base_p_Pa || analysis_seq; }
+  std::optional<iso6976::CombustionRef> combustion;
+  bool combustion_hold = false;
+  [[nodiscard]] bool any() const noexcept {
+    return method || base_T_K || base_p_Pa || analysis_seq || combustion || combustion_hold;
+  }
 };
+// Which combustion reference a what-if uses, in words, for a log recorded at
+// the base temperature `recorded_base_T_K`.
+[[nodiscard]] std::string combustion_used(const WhatIf& w, double recorded_base_T_K);
 
 // Adds one replayed interval to running totals.
 void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalReplay& r) noexcept;

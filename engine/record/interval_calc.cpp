@@ -43,7 +43,7 @@ struct Avg {
 }  // namespace
 
 GasInForce prepare_gas(LineMethod& method, const Fractions<double>& x, double Hs_MJ_per_m3, std::int64_t seq,
-                       const PointConfig& cfg, const EvalOptions& eval) {
+                       const PointConfig& cfg, const EvalOptions& eval, std::optional<iso6976::CombustionRef> combustion) {
   GasInForce gas;
   gas.seq = seq;
   gas.Hs_MJ_per_m3 = Hs_MJ_per_m3;
@@ -62,7 +62,7 @@ GasInForce prepare_gas(LineMethod& method, const Fractions<double>& x, double Hs
   gas.status = "ok";
   if (std::isnan(Hs_MJ_per_m3)) {
     if (const auto mref = metering_ref_for(cfg.base_T_K)) {
-      const auto props = iso6976::properties(x, default_combustion_for(cfg.base_T_K), *mref, cfg.base_p_Pa);
+      const auto props = iso6976::properties(x, combustion.value_or(default_combustion_for(cfg.base_T_K)), *mref, cfg.base_p_Pa);
       if (props.status.ok()) gas.Hs_MJ_per_m3 = props.Hs_MJ_per_m3;
     }
   }

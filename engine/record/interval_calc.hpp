@@ -37,10 +37,12 @@
 
 #include <cstdint>
 #include <limits>
+#include <optional>
 #include <span>
 #include <string>
 
 #include "eval/line_method.hpp"
+#include "methods/iso6976.hpp"
 #include "record/config.hpp"
 
 namespace zcorr::record {
@@ -85,10 +87,13 @@ struct IntervalResult {
 // Prepares `method` for the analysis x and computes what every interval under
 // it shares: Z_b at the configuration's base conditions and, when the analysis
 // gives no Hs (NaN), Hs by ISO 6976 at the base conditions with the combustion
-// reference usually paired with them (eval/conversion.hpp). The recorder and
-// the replay both use it, so a replay prepares the gas exactly as recorded.
+// reference usually paired with them (eval/conversion.hpp), or with
+// `combustion` when given (a what-if that holds or changes the combustion
+// reference). The recorder and the replay both use it, so a replay prepares
+// the gas exactly as recorded.
 [[nodiscard]] GasInForce prepare_gas(LineMethod& method, const Fractions<double>& x, double Hs_MJ_per_m3, std::int64_t seq,
-                                     const PointConfig& cfg, const EvalOptions& eval);
+                                     const PointConfig& cfg, const EvalOptions& eval,
+                                     std::optional<iso6976::CombustionRef> combustion = std::nullopt);
 
 [[nodiscard]] IntervalResult compute_interval(std::span<const Sample> samples, const PointConfig& cfg, const LineMethod& method,
                                               const GasInForce& gas, const EvalOptions& eval);
