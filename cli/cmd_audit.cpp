@@ -18,6 +18,8 @@
 #include "commands.hpp"
 #include "common.hpp"
 #include "io/input_error.hpp"
+#include "io/iso6976_refs.hpp"
+#include "io/text.hpp"
 #include "io/units_parse.hpp"
 #include "progress.hpp"
 #include "record/quantities.hpp"
@@ -28,7 +30,7 @@ namespace {
 
 struct AuditCliOptions {
   std::string db, point, from, to, contract;
-  std::string wi_method, wi_base_T, wi_base_p;
+  std::string wi_method, wi_base_T, wi_base_p, wi_combustion;
   std::string report;  // --report FILE.html
   std::int64_t wi_analysis = 0;
   double max_age_h = 840;
@@ -56,6 +58,19 @@ std::string csv_field(const std::string& s) {
 }
 
 double json_num(double v) { return std::isfinite(v) ? v : (v > 0 ? 1e300 : -1e300); }
+// NaN (not known) as null; an infinite value as +-1e300.
+nlohmann::json json_or_null(double v) { return std::isnan(v) ? nlohmann::json(nullptr) : nlohmann::json(json_num(v)); }
+
+// "hold" or an ISO 6976 combustion reference ("15", "60 degF") -> the what-if's combustion reference.
+void parse_combustion(const std::string& text, audit::WhatIf& w) {
+  if (io::trim(text) == "hold") w.combustion_hold = true;
+  else w.combustion = io::parse_combustion_ref(text, "--what-if-combustion-ref");
+}
+
+std::string diff_text(double v, bool estimated) {
+  if (std::isnan(v)) return "not known";
+  return (estimated ? "~" : "") + std::string(v > 0 ? "+" : "") + fixed(v, 6);
+}
 
 int run_audit_cmd(const AuditCliOptions& o) {
   using namespace zcorr::audit;
@@ -73,6 +88,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
   if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
   if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
   if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
+  if (!o.wi_combustion.empty()) parse_combustion(o.wi_combustion, ao.what_if);
 
   ao.progress = stderr_progress("audit");
 
@@ -119,6 +135,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
     if (!o.wi_base_T.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base temperature ") + o.wi_base_T;
     if (!o.wi_base_p.empty()) wi += (wi.empty() ? "" : ", ") + std::string("base pressure ") + o.wi_base_p;
     if (o.wi_analysis) wi += (wi.empty() ? "" : ", ") + std::string("gas_analysis seq ") + std::to_string(o.wi_analysis);
+    if (!o.wi_combustion.empty()) wi += (wi.empty() ? "" : ", ") + std::string("combustion reference ") + o.wi_combustion;
     if (!wi.empty()) h.what_if = "Recomputed with " + wi;
     const std::filesystem::path tmp = o.report + ".zcorr-tmp";
     std::error_code ec;
@@ -149,7 +166,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
   }
   if (!o.report.empty()) write_report(r);
   const ReplayTotals& t = r.replay;
-  const bool clean = r.findings.empty();
+  const bool clean = r.counting() == 0;  // notices leave the exit status alone
 
   if (o.format == Format::json) {
     nlohmann::json j;
@@ -173,13 +190,19 @@ int run_audit_cmd(const AuditCliOptions& o) {
                    {"max_dC_ppm", json_num(t.max_dC_ppm)},
                    {"max_dV_b_ppm", json_num(t.max_dV_b_ppm)},
                    {"max_dE_ppm", json_num(t.max_dE_ppm)}};
-    if (r.what_if_run)
+    if (r.what_if_run) {
       j["what_if"] = {{"intervals", r.what_if.intervals},
                       {"recomputed", r.what_if.replayed},
                       {"V_b_m3_logged", record::decimal(r.what_if.V_b_um3_logged, 6)},
                       {"V_b_m3_what_if", record::decimal(r.what_if.V_b_um3_replayed, 6)},
                       {"E_MJ_logged", record::decimal(r.what_if.E_J_logged, 6)},
-                      {"E_MJ_what_if", record::decimal(r.what_if.E_J_replayed, 6)}};
+                      {"E_MJ_what_if", record::decimal(r.what_if.E_J_replayed, 6)},
+                      {"combustion_reference", r.what_if_combustion},
+                      {"difference_by_cause", nlohmann::json::array()}};
+      for (const auto& st : r.what_if_steps)
+        j["what_if"]["difference_by_cause"].push_back(
+            {{"cause", st.cause}, {"V_b_m3_difference", record::decimal(st.V_b_um3, 6)}, {"E_MJ_difference", record::decimal(st.E_J, 6)}});
+    }
     j["as_recorded"] = {{"V_b_m3", record::decimal(r.V_b_um3_as_recorded, 6)}, {"E_MJ", record::decimal(r.E_J_as_recorded, 6)}};
     j["correction_sets"] = nlohmann::json::array();
     for (const auto& c : r.corrections)
@@ -207,10 +230,23 @@ int run_audit_cmd(const AuditCliOptions& o) {
                                {"intervals", f.intervals},
                                {"first_seq", f.first_seq},
                                {"last_seq", f.last_seq},
-                               {"V_b_m3", f.V_b_m3},
-                               {"E_MJ", f.E_MJ},
+                               {"V_b_m3_affected", f.V_b_affected_m3},
+                               {"E_MJ_affected", f.E_affected_MJ},
+                               {"V_b_m3_difference", json_or_null(f.V_b_difference_m3)},
+                               {"E_MJ_difference", json_or_null(f.E_difference_MJ)},
+                               {"V_b_difference_ppm", json_or_null(f.V_b_difference_ppm())},
+                               {"E_difference_ppm", json_or_null(f.E_difference_ppm())},
+                               {"difference_estimated", f.difference_estimated},
+                               {"difference_basis", f.difference_basis},
                                {"worst_ppm", json_num(f.worst_ppm)},
                                {"detail", f.detail}});
+    for (std::size_t k = 0; k < r.findings.size(); ++k)
+      if (r.findings[k].kind == Kind::alarm) {
+        j["findings"][k]["alarm_time_s"] = r.findings[k].alarm_time_s;
+        j["findings"][k]["V_fault_m3"] = r.findings[k].V_fault_m3;
+      }
+    j["counting_findings"] = r.counting();
+    j["caution"] = caution_text;
     j["intervals_over_bar"] = nlohmann::json::array();
     for (const auto& [iv, rp] : r.over_bar)
       j["intervals_over_bar"].push_back({{"seq", iv.seq}, {"point", iv.point}, {"start", record::format_time_utc(iv.start_utc_s)},
@@ -219,12 +255,15 @@ int run_audit_cmd(const AuditCliOptions& o) {
                                          {"worst_ppm", json_num(rp.worst_ppm())}});
     std::cout << j.dump(2) << '\n';
   } else if (o.format == Format::csv) {
-    std::cout << "kind,severity,point,from,to,intervals,first_seq,last_seq,V_b_m3,E_MJ,worst_ppm,detail\n";
+    std::cout << "kind,severity,point,from,to,intervals,first_seq,last_seq,V_b_m3_affected,E_MJ_affected,V_b_m3_difference,"
+                 "E_MJ_difference,V_b_difference_ppm,difference_estimated,worst_ppm,alarm_time_s,V_fault_m3,difference_basis,detail\n";
     for (const auto& f : r.findings)
       std::cout << kind_name(f.kind) << ',' << severity_name(f.severity) << ',' << csv_field(f.point) << ','
                 << t_or_empty(f.from_utc_s) << ',' << t_or_empty(f.to_utc_s) << ',' << f.intervals << ',' << f.first_seq << ','
-                << f.last_seq << ',' << fixed(f.V_b_m3, 6) << ',' << fixed(f.E_MJ, 6) << ',' << fixed(f.worst_ppm, 3) << ','
-                << csv_field(f.detail) << '\n';
+                << f.last_seq << ',' << fixed(f.V_b_affected_m3, 6) << ',' << fixed(f.E_affected_MJ, 6) << ','
+                << fixed(f.V_b_difference_m3, 6) << ',' << fixed(f.E_difference_MJ, 6) << ',' << fixed(f.V_b_difference_ppm(), 3) << ','
+                << (f.difference_estimated ? "yes" : "no") << ',' << fixed(f.worst_ppm, 3) << ',' << f.alarm_time_s << ','
+                << fixed(f.V_fault_m3, 6) << ',' << csv_field(f.difference_basis) << ',' << csv_field(f.detail) << '\n';
   } else {
     std::cout << "log        " << o.db << " (id " << r.log_id << "), " << r.records << " chained records, head " << r.head_hash_hex
               << '\n'
@@ -248,7 +287,12 @@ int run_audit_cmd(const AuditCliOptions& o) {
                 << record::decimal(r.what_if.V_b_um3_logged, 6) << " m3 logged, " << record::decimal(r.what_if.V_b_um3_replayed, 6)
                 << " m3 what-if (" << record::decimal(r.what_if.V_b_um3_replayed - r.what_if.V_b_um3_logged, 6) << "); energy "
                 << record::decimal(r.what_if.E_J_logged, 6) << " MJ logged, " << record::decimal(r.what_if.E_J_replayed, 6)
-                << " MJ what-if (" << record::decimal(r.what_if.E_J_replayed - r.what_if.E_J_logged, 6) << ")\n";
+                << " MJ what-if (" << record::decimal(r.what_if.E_J_replayed - r.what_if.E_J_logged, 6) << ")\n"
+                << "           " << r.what_if_combustion << '\n';
+    if (r.what_if_run && r.what_if_steps.size() > 1)
+      for (const auto& st : r.what_if_steps)
+        std::cout << "           by cause: " << st.cause << ": V_b " << record::decimal(st.V_b_um3, 6) << " m3, energy "
+                  << record::decimal(st.E_J, 6) << " MJ\n";
     if (!r.corrections.empty()) {
       std::cout << "corrected  base volume " << record::decimal(r.V_b_um3_as_recorded, 6) << " m3 as recorded, "
                 << record::decimal(r.V_b_um3, 6) << " m3 corrected (" << record::decimal(r.V_b_um3 - r.V_b_um3_as_recorded, 6)
@@ -266,18 +310,29 @@ int run_audit_cmd(const AuditCliOptions& o) {
           break;
         }
     }
-    if (clean) {
+    if (r.findings.empty()) {
       std::cout << "result     nothing found\n";
     } else {
-      std::cout << "result     " << r.findings.size() << " finding(s)\n";
+      const std::size_t notices = r.findings.size() - r.counting();
+      std::cout << "result     " << r.findings.size() << " finding(s)";
+      if (notices) std::cout << " (" << notices << " notice" << (notices == 1 ? "" : "s") << (clean ? ", nothing above a notice" : "") << ")";
+      std::cout << "\n           affected = the logged figures of the records concerned; difference = recomputed or estimated minus\n"
+                   "           logged (~ an estimate; negative: the log states too much), its ppm of the affected volume\n";
       for (const auto& f : r.findings) {
         std::cout << "  " << kind_name(f.kind) << " [" << severity_name(f.severity) << "] " << (f.point.empty() ? "-" : f.point) << ' '
                   << t_or_empty(f.from_utc_s) << " .. " << t_or_empty(f.to_utc_s) << ", " << f.intervals << " interval(s), seq "
-                  << f.first_seq << ".." << f.last_seq << ", V_b " << fixed(f.V_b_m3, 6) << " m3, E " << fixed(f.E_MJ, 6) << " MJ";
-        if (f.kind == Kind::calc_difference) std::cout << ", worst " << fixed(f.worst_ppm, 1) << " ppm";
-        std::cout << "\n      " << f.detail << '\n';
+                  << f.first_seq << ".." << f.last_seq << "\n      affected V_b " << fixed(f.V_b_affected_m3, 6) << " m3, E "
+                  << fixed(f.E_affected_MJ, 6) << " MJ; difference V_b " << diff_text(f.V_b_difference_m3, f.difference_estimated)
+                  << " m3";
+        if (std::isfinite(f.V_b_difference_ppm())) std::cout << " (" << fixed(f.V_b_difference_ppm(), 1) << " ppm)";
+        std::cout << ", E " << diff_text(f.E_difference_MJ, f.difference_estimated) << " MJ";
+        if (f.kind == Kind::calc_difference) std::cout << "; largest deviation " << fixed(f.worst_ppm, 1) << " ppm";
+        if (f.kind == Kind::alarm)
+          std::cout << "\n      " << f.alarm_time_s << " s in alarm, fault volume " << fixed(f.V_fault_m3, 6) << " m3 (line)";
+        std::cout << "\n      " << f.detail << "\n      difference: " << f.difference_basis << '\n';
       }
     }
+    std::cout << '\n' << caution_text << '\n';
   }
   return clean ? exit_ok : exit_partial;
 }
@@ -301,16 +356,26 @@ void setup_audit(CLI::App& app, int& exit_code) {
   sub->add_option("--what-if-base-T", opt->wi_base_T, "What-if: base temperature, e.g. \"60 degF\"");
   sub->add_option("--what-if-base-p", opt->wi_base_p, "What-if: base pressure, absolute, e.g. \"14.73 psia\"");
   sub->add_option("--what-if-analysis", opt->wi_analysis, "What-if: use this gas_analysis record (seq) for every interval");
+  sub->add_option("--what-if-combustion-ref", opt->wi_combustion,
+                  "What-if: combustion reference of Hs: hold (as recorded), or 0, 15, 15.55, 20, 25 degC (default: see footer)");
   sub->add_option("--report", opt->report,
                   "Also write a self-contained HTML report (totals, findings, charts per point) to this file");
   add_format_option(*sub, opt->format);
   sub->footer(
       "\nFinding kinds: broken_chain, totals_mismatch, gap, overlap, duplicate, stale_analysis, contract_mismatch,\n"
-      "outside_method_range, calc_difference, config_without_event, not_replayed.\n"
+      "outside_method_range, calc_difference, config_without_event, not_replayed, alarm.\n"
+      "Severities: notice (listed; leaves the exit status alone, e.g. an alarm the configuration handled as\n"
+      "designed), warning, critical. Each finding has two figures of base volume and energy: affected (the\n"
+      "logged figures of its records) and difference (recomputed or estimated minus logged, signed; estimates\n"
+      "are marked and say how they were made; 'not known' where the log does not hold what is needed).\n"
+      "A base-condition what-if keeps a stated Hs at its own combustion reference and computes a missing Hs at\n"
+      "the reference usually paired with the new base temperature; --what-if-combustion-ref hold keeps the\n"
+      "recorded one for every Hs, a temperature sets one. The energy difference is split by cause.\n"
       "Contract file example:\n  point = ST-1\n  method = gerg2008\n  base_T = 15 degC\n  base_p = 101.325 kPa\n\n"
       "--report FILE.html writes one HTML file with no outside references (inline CSS and SVG charts of the replay\n"
       "deviation and the base volume over time); the normal output still goes to standard output.\n\n"
-      "Exit status: 0 nothing found, 1 findings, 2 the log cannot be read.\n\nExample:\n  zcorr audit --db station.db --contract contract.txt\n"
+      "Exit status: 0 nothing above a notice, 1 warning or critical findings, 2 the log cannot be read.\n\n" +
+      std::string(caution_text) + "\n\nExample:\n  zcorr audit --db station.db --contract contract.txt\n"
       "  zcorr audit --db station.db --report audit.html\n");
   sub->callback([opt, &exit_code] { exit_code = guarded("audit", [&] { return run_audit_cmd(*opt); }); });
 }

@@ -120,7 +120,8 @@ TEST_F(AuditTest, ChangedBaseVolumeIsABrokenChainAndACalculationDifference) {
   ASSERT_EQ(calc.size(), 1u);
   EXPECT_EQ(calc[0].first_seq, seq);
   EXPECT_EQ(calc[0].intervals, 1);
-  EXPECT_NEAR(calc[0].V_b_m3, -0.5, 1e-9);  // recomputed - logged
+  EXPECT_NEAR(calc[0].V_b_difference_m3, -0.5, 1e-9);  // recomputed - logged
+  EXPECT_TRUE(calc[0].difference_estimated);        // per_sample: from the averages
   EXPECT_EQ(r.replay.over_bar, 1);
   // The register was left alone, so it no longer matches its quantity.
   EXPECT_EQ(of_kind(r, Kind::totals_mismatch).size(), 1u);
@@ -137,7 +138,10 @@ TEST_F(AuditTest, ZfChangedBeyondTheBarIsFoundAndWithinTheBarIsNot) {
   EXPECT_EQ(calc[0].last_seq, b);
   EXPECT_EQ(calc[0].intervals, 2);
   EXPECT_NEAR(std::fabs(calc[0].worst_ppm), 1e6 * (1 - 1 / 1.0001), 0.01);  // (re - logged) / logged
-  EXPECT_NEAR(calc[0].V_b_m3, 0.0, 1e-12);  // per_sample: V_b follows from I and Z_b, untouched
+  // Only the logged Z_f was altered (its Fz, I and V_b still agree with each
+  // other): the volume follows from I, so no volume difference.
+  EXPECT_NEAR(calc[0].V_b_difference_m3, 0.0, 1e-9);
+  EXPECT_GT(calc[0].V_b_affected_m3, 0.0);
   EXPECT_EQ(r.replay.over_bar, 2);
   EXPECT_NEAR(r.replay.max_dZ_f_ppm, 1e6 * (1 - 1 / 1.0001), 0.01);
   // A tighter tolerance finds the third one too.
@@ -151,6 +155,7 @@ TEST_F(AuditTest, RemovedIntervalsAreAGapWithAnEstimate) {
   const std::int64_t before = interval_seq(99);
   const std::int64_t start = q("SELECT start_utc_s FROM interval WHERE seq = " + std::to_string(first));
   const double rate = qf("SELECT V_b_um3 * 1e-6 / 60.0 FROM interval WHERE seq = " + std::to_string(before));
+  const double rate_after = qf("SELECT V_b_um3 * 1e-6 / 60.0 FROM interval WHERE seq = " + std::to_string(interval_seq(105)));
   shell("DROP TRIGGER interval_no_delete; DELETE FROM interval WHERE start_utc_s >= " + std::to_string(start) +
         " AND start_utc_s < " + std::to_string(start + 300));
   const auto r = audit();
@@ -159,7 +164,10 @@ TEST_F(AuditTest, RemovedIntervalsAreAGapWithAnEstimate) {
   EXPECT_EQ(gaps[0].from_utc_s, start);
   EXPECT_EQ(gaps[0].to_utc_s, start + 300);
   EXPECT_EQ(gaps[0].first_seq, before);
-  EXPECT_NEAR(gaps[0].V_b_m3, rate * 300, 1e-6);
+  EXPECT_EQ(gaps[0].V_b_affected_m3, 0.0);  // no record concerned
+  EXPECT_NEAR(gaps[0].V_b_difference_m3, 0.5 * (rate + rate_after) * 300, 1e-6);  // the flow on either side
+  EXPECT_TRUE(gaps[0].difference_estimated);
+  EXPECT_GT(gaps[0].E_difference_MJ, 0.0);
   EXPECT_FALSE(of_kind(r, Kind::broken_chain).empty());  // the chain shows the removal too
 }
 
@@ -180,12 +188,15 @@ TEST_F(AuditTest, InsertedCopyIsADuplicateAndShiftedCopyAnOverlap) {
   EXPECT_EQ(dup[0].from_utc_s, start);
   EXPECT_EQ(dup[0].to_utc_s, start + 60);
   EXPECT_EQ(dup[0].first_seq, seq);
-  EXPECT_NEAR(dup[0].V_b_m3, static_cast<double>(vb) * 1e-6, 1e-9);
+  EXPECT_NEAR(dup[0].V_b_affected_m3, static_cast<double>(vb) * 1e-6, 1e-9);
+  EXPECT_NEAR(dup[0].V_b_difference_m3, -static_cast<double>(vb) * 1e-6, 1e-9);  // counted twice
+  EXPECT_NEAR(dup[0].V_b_difference_ppm(), -1e6, 1e-3);
   const auto ov = of_kind(r, Kind::overlap);
   ASSERT_EQ(ov.size(), 2u);  // the copy overlaps the original, and the next interval overlaps the copy
   EXPECT_EQ(ov[0].from_utc_s, start2 + 30);
   EXPECT_EQ(ov[0].to_utc_s, start2 + 60);
-  EXPECT_NEAR(ov[0].V_b_m3, static_cast<double>(vb2) * 1e-6 * 0.5, 1e-9);
+  EXPECT_NEAR(ov[0].V_b_affected_m3, static_cast<double>(vb2) * 1e-6, 1e-9);
+  EXPECT_NEAR(ov[0].V_b_difference_m3, -static_cast<double>(vb2) * 1e-6 * 0.5, 1e-9);
   EXPECT_EQ(ov[1].from_utc_s, start2 + 60);
   EXPECT_EQ(ov[1].to_utc_s, start2 + 90);
 }
@@ -200,7 +211,9 @@ TEST_F(AuditTest, StaleAnalysisFromTheAllowedAge) {
   EXPECT_EQ(st[0].from_utc_s, t0 + 12 * 3600 + 60);  // the first interval starting more than 12 h after the analysis
   EXPECT_EQ(st[0].to_utc_s, last_end);
   EXPECT_EQ(st[0].intervals, (last_end - (t0 + 12 * 3600 + 60)) / 60);
-  EXPECT_NEAR(st[0].V_b_m3,
+  EXPECT_TRUE(std::isnan(st[0].V_b_difference_m3));  // not known without a current analysis
+  EXPECT_FALSE(st[0].difference_basis.empty());
+  EXPECT_NEAR(st[0].V_b_affected_m3,
               static_cast<double>(q("SELECT sum(V_b_um3) FROM interval WHERE start_utc_s > " + std::to_string(t0 + 12 * 3600))) * 1e-6,
               1e-6);
   EXPECT_EQ(r.findings.size(), 1u);
@@ -214,7 +227,17 @@ TEST_F(AuditTest, ContractBaseConditionsAndMethod) {
   ASSERT_EQ(cm.size(), 1u);
   EXPECT_EQ(cm[0].from_utc_s, t0);
   EXPECT_EQ(cm[0].to_utc_s, q("SELECT max(end_utc_s) FROM interval"));
-  EXPECT_NEAR(cm[0].V_b_m3, static_cast<double>(q("SELECT sum(V_b_um3) FROM interval")) * 1e-6, 1e-6);
+  const double total = static_cast<double>(q("SELECT sum(V_b_um3) FROM interval")) * 1e-6;
+  EXPECT_NEAR(cm[0].V_b_affected_m3, total, 1e-6);
+  // The difference is the log recomputed at the contract's base pressure:
+  // the same as a what-if with it, and close to the ideal-gas ratio of the
+  // base pressures (Z_b moves by far less).
+  audit::AuditOptions w;
+  w.what_if.base_p_Pa = 101560;
+  const auto wi = audit(w);
+  EXPECT_NEAR(cm[0].V_b_difference_m3, static_cast<double>(wi.what_if.V_b_um3_replayed - wi.what_if.V_b_um3_logged) * 1e-6, 1e-3);
+  EXPECT_NEAR(cm[0].V_b_difference_ppm(), (101325.0 / 101560.0 - 1) * 1e6, 20.0);
+  EXPECT_NEAR(cm[0].E_difference_MJ, 0.0, 1e-6 * cm[0].E_affected_MJ);  // Hs re-based: the energy does not depend on base_p
   EXPECT_NE(cm[0].detail.find("base_p 101325 Pa (contract 101560 Pa)"), std::string::npos) << cm[0].detail;
   EXPECT_EQ(cm[0].detail.find("base_T"), std::string::npos);
 
@@ -243,7 +266,8 @@ TEST_F(AuditTest, StateOutsideTheMethodRange) {
   EXPECT_EQ(out[0].from_utc_s, start);
   EXPECT_EQ(out[0].to_utc_s, start + 60);
   EXPECT_EQ(out[0].severity, audit::Severity::critical);
-  EXPECT_NEAR(out[0].V_b_m3, static_cast<double>(vb) * 1e-6, 1e-9);
+  EXPECT_NEAR(out[0].V_b_affected_m3, static_cast<double>(vb) * 1e-6, 1e-9);
+  EXPECT_TRUE(std::isnan(out[0].V_b_difference_m3));
   EXPECT_EQ(of_kind(r, Kind::calc_difference).size(), 1u);  // nothing could be recomputed there
 }
 
@@ -256,7 +280,8 @@ TEST_F(AuditTest, ConfigurationWithoutItsEvent) {
   EXPECT_EQ(ce[0].from_utc_s, t0);
   EXPECT_EQ(ce[0].to_utc_s, q("SELECT max(end_utc_s) FROM interval"));
   EXPECT_EQ(ce[0].intervals, hours_of_data * 60);
-  EXPECT_NEAR(ce[0].V_b_m3, static_cast<double>(q("SELECT sum(V_b_um3) FROM interval")) * 1e-6, 1e-6);
+  EXPECT_NEAR(ce[0].V_b_affected_m3, static_cast<double>(q("SELECT sum(V_b_um3) FROM interval")) * 1e-6, 1e-6);
+  EXPECT_TRUE(std::isnan(ce[0].V_b_difference_m3));
 }
 
 TEST_F(AuditTest, HourlyTotalThatDoesNotAddUp) {
@@ -328,7 +353,25 @@ TEST_P(AuditAlarmTest, IntervalsPartlyInAlarmReplayClean) {
   record::Log log(file, {record::OpenMode::read_only});
   ASSERT_GT(testing::scalar(log.db(), "SELECT count(*) FROM interval WHERE V_fault_um3 > 0 AND V_b_um3 > 0"), 0);
   const auto r = audit::run_audit(log, {}, test_methods());
-  for (const auto& f : r.findings) ADD_FAILURE() << audit::kind_name(f.kind) << ": " << f.detail;
+  // The only finding is the alarm, a notice: the configuration stopped the
+  // converted register as designed. It carries the alarm's duration, its
+  // fault volume and the base volume a substitution at the last converting
+  // interval's factor would give.
+  ASSERT_EQ(r.findings.size(), 1u);
+  const auto& a = r.findings[0];
+  EXPECT_EQ(a.kind, Kind::alarm) << a.detail;
+  EXPECT_EQ(a.severity, audit::Severity::notice);
+  EXPECT_EQ(r.counting(), 0u);
+  const double fault = static_cast<double>(testing::scalar(log.db(), "SELECT sum(V_fault_um3) FROM interval")) * 1e-6;
+  EXPECT_NEAR(a.V_fault_m3, fault, 1e-9);
+  EXPECT_EQ(a.alarm_time_s, testing::scalar(log.db(), "SELECT sum(alarm_time_s) FROM interval"));
+  EXPECT_EQ(a.alarm_time_s, 50);  // five 10-second rows
+  record::Stmt c(log.db(), "SELECT C FROM interval WHERE V_fault_um3 = 0 AND V_b_um3 > 0 AND end_utc_s <= " + std::to_string(a.from_utc_s) +
+                               " ORDER BY start_utc_s DESC LIMIT 1");
+  ASSERT_TRUE(c.step());
+  EXPECT_NEAR(a.V_b_difference_m3, fault * c.f64(0), 1e-9 * fault * c.f64(0));
+  EXPECT_TRUE(a.difference_estimated);
+  EXPECT_NEAR(a.E_difference_MJ, a.V_b_difference_m3 * 39.5, 1e-9 * a.E_difference_MJ);  // Hs of the analysis
   EXPECT_EQ(r.replay.V_b_um3_logged, r.replay.V_b_um3_replayed);
   EXPECT_EQ(r.replay.E_J_logged, r.replay.E_J_replayed);
 }

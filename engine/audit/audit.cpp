@@ -32,13 +32,14 @@ std::string_view kind_name(Kind k) noexcept {
     case Kind::calc_difference: return "calc_difference";
     case Kind::config_without_event: return "config_without_event";
     case Kind::not_replayed: return "not_replayed";
+    case Kind::alarm: return "alarm";
   }
   return "?";
 }
 
 std::string_view severity_name(Severity s) noexcept {
   switch (s) {
-    case Severity::info: return "info";
+    case Severity::notice: return "notice";
     case Severity::warning: return "warning";
     case Severity::critical: return "critical";
   }
@@ -63,12 +64,20 @@ std::string num(double v) {
   return s.str();
 }
 
+// The two figures a finding adds per interval.
+struct Figures {
+  double V_affected = 0, E_affected = 0;
+  double V_difference = nan_v, E_difference = nan_v;
+  bool estimated = false;
+  std::string basis;
+};
+
 // Consecutive intervals of one point with the same kind and cause, as one finding.
 class Runs {
  public:
   explicit Runs(std::vector<AuditFinding>& out) : out_(out) {}
-  void add(Kind k, Severity sev, const std::string& key, const LoggedInterval& iv, double V_b, double E, double ppm,
-           const std::string& detail) {
+  AuditFinding& add(Kind k, Severity sev, const std::string& key, const LoggedInterval& iv, const Figures& fig, double ppm,
+                    const std::string& detail) {
     Open& o = open_[static_cast<std::size_t>(k)];
     if (o.active && (o.key != key || o.f.point != iv.point || o.f.to_utc_s != iv.start_utc_s)) close(o);
     if (!o.active) {
@@ -81,14 +90,20 @@ class Runs {
       o.f.from_utc_s = iv.start_utc_s;
       o.f.first_seq = iv.seq;
       o.f.detail = detail;
+      o.f.V_b_difference_m3 = o.f.E_difference_MJ = 0;
+      o.f.difference_basis = fig.basis;
     }
     o.f.to_utc_s = iv.end_utc_s;
     o.f.last_seq = iv.seq;
     ++o.f.intervals;
-    o.f.V_b_m3 += V_b;
-    o.f.E_MJ += E;
+    o.f.V_b_affected_m3 += fig.V_affected;
+    o.f.E_affected_MJ += fig.E_affected;
+    o.f.V_b_difference_m3 += fig.V_difference;  // NaN once not known for one interval
+    o.f.E_difference_MJ += fig.E_difference;
+    o.f.difference_estimated = o.f.difference_estimated || fig.estimated;
     if (std::fabs(ppm) > std::fabs(o.f.worst_ppm)) o.f.worst_ppm = ppm;
     if (sev > o.f.severity) o.f.severity = sev;
+    return o.f;
   }
   void close_all() {
     for (auto& o : open_) close(o);
@@ -106,12 +121,27 @@ class Runs {
     o.active = false;
   }
   std::vector<AuditFinding>& out_;
-  std::array<Open, 11> open_{};
+  std::array<Open, kind_count> open_{};
 };
 
 double fin(double v) { return std::isfinite(v) ? v : 0.0; }
 
+constexpr const char* estimate_from_averages =
+    "per_sample intervals estimated from their averages (the logged integral rescaled to the recomputed Z_f): exact where "
+    "logged figures were altered, otherwise first order, its error at most about the difference times the relative spread "
+    "of the line pressure within an interval";
+
 }  // namespace
+
+double AuditFinding::V_b_difference_ppm() const noexcept {
+  return std::isfinite(V_b_difference_m3) && V_b_affected_m3 != 0 ? V_b_difference_m3 / std::fabs(V_b_affected_m3) * 1e6 : nan_v;
+}
+double AuditFinding::E_difference_ppm() const noexcept {
+  return std::isfinite(E_difference_MJ) && E_affected_MJ != 0 ? E_difference_MJ / std::fabs(E_affected_MJ) * 1e6 : nan_v;
+}
+std::size_t AuditResult::counting() const noexcept {
+  return static_cast<std::size_t>(std::count_if(findings.begin(), findings.end(), [](const AuditFinding& f) { return f.counts(); }));
+}
 
 Contract parse_contract(std::string_view text, std::string_view source) {
   Contract c;
@@ -218,11 +248,12 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         a.intervals = q.i64(0);
         a.from_utc_s = q.i64(1);
         a.to_utc_s = q.i64(2);
-        a.V_b_m3 = q.f64(3) * record::volume_quantum_m3;
-        a.E_MJ = q.f64(4) * 1e-6;
+        a.V_b_affected_m3 = q.f64(3) * record::volume_quantum_m3;
+        a.E_affected_MJ = q.f64(4) * 1e-6;
         a.first_seq = q.i64(5);
         a.last_seq = q.i64(6);
       }
+      a.difference_basis = "not a calculation finding: the intervals follow the configuration as logged (calc_difference says where they do not)";
       a.detail = "configuration record seq " + std::to_string(s.i64(0)) + " (in force from " + record::format_time_utc(s.i64(2)) +
                  ") has no config_change event naming it";
       res.findings.push_back(a);
@@ -256,11 +287,22 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     return contract_diff.emplace(config_seq, d).first->second;
   };
 
+  // The contract's method and base conditions, for the difference of the intervals that miss them.
+  std::unique_ptr<Replayer> contract_rp;
+  if (opt.contract && (opt.contract->method || opt.contract->base_T_K || opt.contract->base_p_Pa)) {
+    WhatIf w;
+    w.method = opt.contract->method;
+    w.base_T_K = opt.contract->base_T_K;
+    w.base_p_Pa = opt.contract->base_p_Pa;
+    contract_rp = std::make_unique<Replayer>(log, what_if_methods, EvalOptions{}, w);
+  }
+
   Runs runs(res.findings);
   std::string cur_point;
   bool have_prev = false;
   std::int64_t prev_start = 0, prev_end = 0, prev_seq = 0;
   double prev_rate_Vb = 0, prev_rate_E = 0;  // per second, for a gap estimate
+  double sub_C = nan_v, sub_Hs = nan_v;      // the last converting interval's factor and Hs, for a substitution
   const double max_age_s = opt.max_analysis_age_h * 3600.0;
 
   std::int64_t progress_total = 0, progress_done = 0;
@@ -291,8 +333,18 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     if (iv.point != cur_point) {
       cur_point = iv.point;
       have_prev = false;
+      sub_C = sub_Hs = nan_v;
     }
+    auto unknown = [&](std::string basis) {
+      Figures f;
+      f.V_affected = Vb;
+      f.E_affected = E;
+      f.basis = std::move(basis);
+      return f;
+    };
+    const double len = static_cast<double>(std::max<std::int64_t>(1, iv.end_utc_s - iv.start_utc_s));
     // Sequence of the point's intervals (corrections replace their originals).
+    bool gap_reported = false;
     {
       if (have_prev && iv.start_utc_s > prev_end) {
         AuditFinding a;
@@ -304,10 +356,25 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         a.first_seq = prev_seq;
         a.last_seq = iv.seq;
         const double dt = static_cast<double>(iv.start_utc_s - prev_end);
-        a.V_b_m3 = prev_rate_Vb * dt;
-        a.E_MJ = prev_rate_E * dt;
-        a.detail = "no interval recorded between seq " + std::to_string(prev_seq) + " and seq " + std::to_string(iv.seq) +
-                   " (volume and energy at stake estimated from the rate of the interval before)";
+        a.detail = "no interval recorded from " + record::format_time_utc(prev_end) + " to " + record::format_time_utc(iv.start_utc_s) +
+                   " (" + num(dt) + " s, between seq " + std::to_string(prev_seq) + " and seq " + std::to_string(iv.seq) + ")";
+        if (iv.flags & record::iflag::gap) {
+          // The recorder's own gap: the meter reading after it covers the
+          // missing time, so its volume is in the next interval.
+          a.intervals = 1;
+          a.V_b_affected_m3 = Vb;
+          a.E_affected_MJ = E;
+          a.V_b_difference_m3 = a.E_difference_MJ = 0;
+          a.difference_basis = "the meter reading after the gap covers it: its volume is counted in interval seq " + std::to_string(iv.seq) +
+                               " and converted at that interval's line state";
+          a.detail += "; the samples resume at seq " + std::to_string(iv.seq) + ", which carries the volume of the missing time";
+          gap_reported = true;
+        } else {
+          a.V_b_difference_m3 = 0.5 * (prev_rate_Vb + Vb / len) * dt;
+          a.E_difference_MJ = 0.5 * (prev_rate_E + E / len) * dt;
+          a.difference_estimated = true;
+          a.difference_basis = "estimate: the mean base-volume and energy rate of the intervals on either side times the missing time";
+        }
         res.findings.push_back(a);
       } else if (have_prev && iv.start_utc_s == prev_start && iv.end_utc_s == prev_end) {
         AuditFinding a;
@@ -319,8 +386,11 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         a.intervals = 1;
         a.first_seq = prev_seq;
         a.last_seq = iv.seq;
-        a.V_b_m3 = Vb;
-        a.E_MJ = E;
+        a.V_b_affected_m3 = Vb;
+        a.E_affected_MJ = E;
+        a.V_b_difference_m3 = -Vb;
+        a.E_difference_MJ = -E;
+        a.difference_basis = "the duplicate's own volume and energy, counted twice in any sum over the intervals";
         a.detail = "interval seq " + std::to_string(iv.seq) + " repeats seq " + std::to_string(prev_seq) +
                    " (its volume is counted twice in any sum over the intervals)";
         res.findings.push_back(a);
@@ -334,23 +404,71 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         a.intervals = 2;
         a.first_seq = prev_seq;
         a.last_seq = iv.seq;
-        const double len = static_cast<double>(iv.end_utc_s - iv.start_utc_s);
-        const double share = len > 0 ? static_cast<double>(a.to_utc_s - a.from_utc_s) / len : 1.0;
-        a.V_b_m3 = Vb * share;
-        a.E_MJ = E * share;
+        const double ilen = static_cast<double>(iv.end_utc_s - iv.start_utc_s);
+        const double share = ilen > 0 ? static_cast<double>(a.to_utc_s - a.from_utc_s) / ilen : 1.0;
+        a.V_b_affected_m3 = Vb;
+        a.E_affected_MJ = E;
+        a.V_b_difference_m3 = -Vb * share;
+        a.E_difference_MJ = -E * share;
+        a.difference_estimated = share < 1.0;
+        a.difference_basis = "minus the later interval's volume and energy in the overlapping time (by its share of the interval's time)";
         a.detail = "interval seq " + std::to_string(iv.seq) + " starts before seq " + std::to_string(prev_seq) + " ended";
         res.findings.push_back(a);
       }
-      if (iv.flags & record::iflag::gap)
-        runs.add(Kind::gap, Severity::warning, "flag", iv, Vb, E, 0,
-                 "the recorder found missing data (a sample covered more than its interval)");
-      const double len = static_cast<double>(std::max<std::int64_t>(1, iv.end_utc_s - iv.start_utc_s));
-      prev_rate_Vb = Vb / len;
-      prev_rate_E = E / len;
+      if ((iv.flags & record::iflag::gap) && !gap_reported) {
+        Figures f = unknown("the volume is in this interval (the meter reading covers the missing time); its conversion used the line state at the reading");
+        f.V_difference = f.E_difference = 0;
+        runs.add(Kind::gap, Severity::warning, "flag", iv, f, 0, "the recorder found missing data (a sample covered more than its interval)");
+      }
+      // The recorder's gap interval carries the volume of the missing time: not a rate.
+      if (!(iv.flags & record::iflag::gap)) {
+        prev_rate_Vb = Vb / len;
+        prev_rate_E = E / len;
+      }
       if (!have_prev || iv.end_utc_s > prev_end) prev_end = iv.end_utc_s;
       prev_start = iv.start_utc_s;
       prev_seq = iv.seq;
       have_prev = true;
+    }
+
+    // Alarms: the conversion stopped for part or all of the interval.
+    if (iv.flags & record::iflag::alarm) {
+      const double V_fault = static_cast<double>(iv.V_fault_um3) * record::volume_quantum_m3;
+      std::string cause;
+      Severity sev = Severity::notice;  // the registers did what the configuration says
+      if (iv.flags & record::iflag::no_analysis) {
+        cause = "no usable gas analysis in force";
+        sev = Severity::warning;
+      } else if (iv.flags & (record::iflag::p_out_of_range | record::iflag::T_out_of_range | record::iflag::bad_input)) {
+        cause = std::string("an input out of its configured range or unreadable (") +
+                ((iv.flags & record::iflag::p_out_of_range) ? "pressure" : "") +
+                ((iv.flags & record::iflag::p_out_of_range) && (iv.flags & record::iflag::T_out_of_range) ? ", " : "") +
+                ((iv.flags & record::iflag::T_out_of_range) ? "temperature" : "") +
+                ((iv.flags & record::iflag::bad_input) ? " bad input row" : "") + ")";
+      } else if (iv.flags & record::iflag::calc_failed) {
+        cause = "a line state the method refused";
+      } else {
+        cause = "conversion stopped";
+      }
+      Figures f;
+      f.V_affected = Vb;
+      f.E_affected = E;
+      const double C_sub = std::isfinite(sub_C) ? sub_C : nan_v;
+      const double Hs_sub = std::isfinite(sub_Hs) ? sub_Hs : r.Hs;
+      f.V_difference = V_fault > 0 ? V_fault * C_sub : 0.0;
+      f.E_difference = V_fault > 0 ? f.V_difference * Hs_sub : 0.0;
+      f.estimated = V_fault > 0;
+      f.basis = std::isfinite(C_sub) || V_fault == 0
+                    ? "the base volume a substitution would give: the fault volume times the conversion factor C (and Hs) of the last "
+                      "converting interval before the alarm"
+                    : "no converting interval before the alarm to take a substitution factor from";
+      AuditFinding& a = runs.add(Kind::alarm, sev, cause, iv, f, 0,
+                                 "conversion stopped: " + cause + "; the unconverted volume counted in the fault register");
+      a.alarm_time_s += iv.alarm_time_s;
+      a.V_fault_m3 += V_fault;
+    } else if (iv.V_b_um3 > 0 && std::isfinite(iv.C)) {
+      sub_C = iv.C;
+      sub_Hs = iv.Hs;
     }
 
     // The analysis in force and its age.
@@ -360,7 +478,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         const std::int64_t taken = ait->second.sampled_utc_s.value_or(ait->second.valid_from_utc_s);
         const double age = static_cast<double>(iv.start_utc_s - taken);
         if (age > max_age_s)
-          runs.add(Kind::stale_analysis, Severity::warning, std::to_string(iv.analysis_seq), iv, Vb, E, 0,
+          runs.add(Kind::stale_analysis, Severity::warning, std::to_string(iv.analysis_seq), iv,
+                   unknown("not known without an analysis for the period (--what-if-analysis recomputes with another one)"), 0,
                    "gas analysis seq " + std::to_string(iv.analysis_seq) + " (taken " + record::format_time_utc(taken) +
                        ") is older than " + num(opt.max_analysis_age_h) + " h");
       }
@@ -368,12 +487,27 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     // The contract.
     if (opt.contract) {
       const std::string& d = contract_check(iv.config_seq, iv.point);
-      if (!d.empty())
-        runs.add(Kind::contract_mismatch, Severity::critical, std::to_string(iv.config_seq), iv, Vb, E, 0,
+      if (!d.empty()) {
+        Figures f = unknown("the contract names no method or base condition to recompute with");
+        if (contract_rp) {
+          const IntervalReplay c = contract_rp->replay(iv);
+          if (c.replayed) {
+            f.V_difference = c.V_b_m3 - iv.V_b_m3;
+            f.E_difference = fin(c.E_MJ) - fin(iv.E_MJ);
+            f.estimated = c.estimated;
+            f.basis = std::string("recomputed with the contract's method and base conditions, minus logged") +
+                      (c.estimated ? std::string("; ") + estimate_from_averages : std::string());
+          } else {
+            f.basis = "not recomputed at the contract's conditions: " + c.why_not;
+          }
+        }
+        runs.add(Kind::contract_mismatch, Severity::critical, std::to_string(iv.config_seq), iv, f, 0,
                  "configuration seq " + std::to_string(iv.config_seq) + " differs from the contract: " + d);
+      }
     }
     if (!r.replayed) {
-      runs.add(Kind::not_replayed, Severity::warning, r.why_not, iv, Vb, E, 0, "not recomputed: " + r.why_not);
+      runs.add(Kind::not_replayed, Severity::warning, r.why_not, iv, unknown("not recomputed: " + r.why_not), 0,
+               "not recomputed: " + r.why_not);
       return;
     }
     // The method's range at the averaged state.
@@ -389,7 +523,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         why = "in the method's expanded range only";
       }
       if (!why.empty())
-        runs.add(Kind::outside_method_range, sev, why, iv, Vb, E, 0,
+        runs.add(Kind::outside_method_range, sev, why, iv,
+                 unknown("not known: no validated result of the method to compare with there (another method: --what-if-method)"), 0,
                  "the averaged state (p " + num(iv.p_avg_Pa) + " Pa, T " + num(iv.T_avg_K) + " K) is " + why + " (" +
                      r.calc_status + ")");
     }
@@ -398,21 +533,64 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     if (worst > opt.tolerance_ppm) {
       if (res.over_bar.size() < 100) res.over_bar.emplace_back(iv, r);
       ++res.over_bar_total;
-      runs.add(Kind::calc_difference, Severity::critical, "calc", iv, fin(r.V_b_m3 - iv.V_b_m3), fin(fin(r.E_MJ) - fin(iv.E_MJ)),
+      Figures f;
+      f.V_affected = Vb;
+      f.E_affected = E;
+      f.V_difference = fin(r.V_b_m3) - iv.V_b_m3;
+      f.E_difference = fin(r.E_MJ) - fin(iv.E_MJ);
+      f.estimated = r.estimated;
+      f.basis = r.estimated ? std::string(estimate_from_averages) : std::string("recomputed from the logged measured inputs, minus logged");
+      runs.add(Kind::calc_difference, Severity::critical, "calc", iv, f,
                std::isfinite(worst) ? std::max({std::fabs(fin(r.dZ_f_ppm)), std::fabs(fin(r.dZ_b_ppm)), std::fabs(fin(r.dC_ppm)),
                                                 std::fabs(fin(r.dV_b_ppm)), std::fabs(fin(r.dE_ppm))})
                                     : 1e300,
-               "the recomputed Z_f, Z_b, C, base volume or energy differs from the log by more than " + num(opt.tolerance_ppm) +
-                   " ppm (volume and energy at stake = recomputed - logged)");
+               "the recomputed Z_f, Z_b, C, base volume or energy differs from the log by more than " + num(opt.tolerance_ppm) + " ppm");
     }
   }, &corrected);
   runs.close_all();
   if (opt.progress) opt.progress(progress_done, progress_done);
   if (opt.what_if.any()) {
-    Replayer w(log, what_if_methods, {}, opt.what_if);
-    w.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
-      if (!corrected.count(iv.seq)) add_to_totals(res.what_if, iv, r);
-    }, &corrected);
+    // The changes one after the other, so that each one's share of the
+    // change of the totals shows: method, analysis, base conditions (the
+    // combustion reference held), then the combustion reference.
+    const WhatIf& w = opt.what_if;
+    std::vector<std::pair<std::string, WhatIf>> steps;
+    WhatIf acc;
+    if (w.method) { acc.method = w.method; steps.emplace_back("method " + *w.method, acc); }
+    if (w.analysis_seq) { acc.analysis_seq = w.analysis_seq; steps.emplace_back("analysis seq " + std::to_string(*w.analysis_seq), acc); }
+    if (w.base_T_K || w.base_p_Pa) {
+      acc.base_T_K = w.base_T_K;
+      acc.base_p_Pa = w.base_p_Pa;
+      acc.combustion_hold = true;
+      steps.emplace_back("base conditions (combustion reference held)", acc);
+    }
+    acc.combustion = w.combustion;
+    acc.combustion_hold = w.combustion_hold;
+    if (steps.empty() || w.combustion || (!w.combustion_hold && (w.base_T_K || w.base_p_Pa)))
+      steps.emplace_back("combustion reference", acc);
+    std::int64_t V_before = 0, E_before = 0;
+    for (std::size_t k = 0; k < steps.size(); ++k) {
+      ReplayTotals t;
+      Replayer wr(log, what_if_methods, {}, steps[k].second);
+      wr.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
+        if (!corrected.count(iv.seq)) add_to_totals(t, iv, r);
+      }, &corrected);
+      if (k == 0) {
+        V_before = t.V_b_um3_logged;
+        E_before = t.E_J_logged;
+      }
+      res.what_if_steps.push_back({steps[k].first, t.V_b_um3_replayed - V_before, t.E_J_replayed - E_before});
+      V_before = t.V_b_um3_replayed;
+      E_before = t.E_J_replayed;
+      if (k + 1 == steps.size()) res.what_if = t;
+    }
+    // A step that changes nothing (the combustion reference where no Hs depends on it) is left out of the split.
+    if (res.what_if_steps.size() > 1)
+      res.what_if_steps.erase(std::remove_if(res.what_if_steps.begin(), res.what_if_steps.end(),
+                                             [](const WhatIfStep& st) { return st.cause == "combustion reference" && st.V_b_um3 == 0 && st.E_J == 0; }),
+                              res.what_if_steps.end());
+    const auto first = rp.configs().begin();
+    res.what_if_combustion = combustion_used(w, first != rp.configs().end() ? first->second.base_T_K : 288.15);
     res.what_if_run = true;
   }
 
@@ -475,6 +653,15 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     a.first_seq = a.last_seq = f.seq;
     a.from_utc_s = a.to_utc_s = f.time_utc_s;
     a.detail = f.kind + ": " + f.table + " seq " + std::to_string(f.seq) + ": " + f.detail;
+    if (f.V_b_um3_difference) {
+      a.V_b_difference_m3 = static_cast<double>(*f.V_b_um3_difference) * record::volume_quantum_m3;
+      a.E_difference_MJ = static_cast<double>(f.E_J_difference.value_or(0)) * 1e-6;
+      a.difference_basis = f.table == "interval" ? "the interval's own quantity minus its register"
+                                                 : "the sum of the intervals minus the record's total";
+    } else {
+      a.difference_basis = totals ? "not a base-volume or energy total"
+                                  : "not known: the record's original content is not in the log (compare with a copy kept elsewhere)";
+    }
     if (f.table == "interval" || f.table == "qtr") {
       Stmt s(db, "SELECT point, start_utc_s, end_utc_s, V_b_um3, E_J FROM " + f.table + " WHERE seq = ?");
       s.bind(1, f.seq);
@@ -482,8 +669,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
         a.point = s.text(0);
         a.from_utc_s = s.i64(1);
         a.to_utc_s = s.i64(2);
-        a.V_b_m3 = static_cast<double>(s.i64(3)) * record::volume_quantum_m3;
-        a.E_MJ = static_cast<double>(s.i64(4)) * 1e-6;
+        a.V_b_affected_m3 = static_cast<double>(s.i64(3)) * record::volume_quantum_m3;
+        a.E_affected_MJ = static_cast<double>(s.i64(4)) * 1e-6;
         a.intervals = f.table == "interval" ? 1 : 0;
       }
     }
@@ -513,6 +700,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     a.severity = Severity::critical;
     a.detail = std::to_string(v.findings_total - static_cast<std::int64_t>(v.findings.size())) +
                " more chain or totals findings not listed";
+    a.difference_basis = "not listed";
     res.findings.push_back(a);
   }
 

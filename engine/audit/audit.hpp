@@ -1,5 +1,6 @@
 // zcorr audit: everything wrong with an interval log, each finding with the
-// intervals it concerns and the base volume and energy at stake.
+// intervals it concerns, a severity, and two figures of base volume and
+// energy: the amount *affected* and the *difference*.
 //
 // Finding kinds (kind_name()):
 //   broken_chain         the hash chain does not hold (record changed, removed, inserted,
@@ -17,10 +18,32 @@
 //   calc_difference      the replay differs from the log beyond the tolerance (ppm)
 //   config_without_event a configuration record with no matching config_change event
 //   not_replayed         an interval that could not be recomputed (unknown method, missing record)
+//   alarm                intervals with the conversion stopped (an input out of range or
+//                        unreadable, a state the method refused, no usable analysis): their
+//                        duration, fault volume and the base volume a substitution would give
 // Consecutive intervals with the same kind and cause form one finding.
-// "At stake": the base volume and energy of the intervals concerned (for a
-// calculation difference, the difference itself; for a gap, an estimate from
-// the rate of the interval before it; for a duplicate, the duplicate's own).
+//
+// The two figures of every finding (base volume V_b in m3 and energy in MJ):
+//  * affected: the logged volume and energy of the records the finding concerns
+//    (a gap concerns none: 0);
+//  * difference: signed, recomputed or estimated minus logged: what the log
+//    over- (negative) or under- (positive) states. NaN when the log does not
+//    hold what is needed to say (difference_basis says why). Estimates are
+//    marked (difference_estimated) and say how they were made:
+//      calc_difference  recomputed minus logged (per_sample intervals: an
+//                       estimate from the averages, see replay.hpp)
+//      gap              the flow on either side times the missing time; 0
+//                       where the meter reading after the gap carries the volume
+//      duplicate        minus the duplicate's own volume (counted twice)
+//      overlap          minus the overlapping share of the later interval
+//      contract_mismatch the intervals recomputed to the contract's method and
+//                       base conditions, minus logged
+//      totals_mismatch  the sum of the intervals minus the record's total
+//      alarm            the fault volume times the conversion factor of the
+//                       last converting interval before it (a substitution)
+//
+// Severity: notice (listed, leaves the exit status alone: an alarm the
+// configuration handled as designed), warning, critical.
 //
 // Contract file (our own format): `key = value` lines, '#' comments.
 //   point   = ID           the point it applies to (absent: every point)
@@ -52,11 +75,13 @@ enum class Kind {
   outside_method_range,
   calc_difference,
   config_without_event,
-  not_replayed
+  not_replayed,
+  alarm
 };
+inline constexpr std::size_t kind_count = 12;
 [[nodiscard]] std::string_view kind_name(Kind k) noexcept;
 
-enum class Severity { info, warning, critical };
+enum class Severity { notice, warning, critical };
 [[nodiscard]] std::string_view severity_name(Severity s) noexcept;
 
 struct AuditFinding {
@@ -68,10 +93,20 @@ struct AuditFinding {
   std::int64_t intervals = 0;    // intervals concerned
   std::int64_t first_seq = 0;    // first record concerned
   std::int64_t last_seq = 0;
-  double V_b_m3 = 0;             // base volume at stake
-  double E_MJ = 0;               // energy at stake
-  double worst_ppm = 0;          // calc_difference: the largest deviation
+  double V_b_affected_m3 = 0;    // logged base volume of the records concerned
+  double E_affected_MJ = 0;      // their logged energy
+  double V_b_difference_m3 = nan_v;  // recomputed or estimated minus logged; NaN = not known
+  double E_difference_MJ = nan_v;
+  bool difference_estimated = false;
+  std::string difference_basis;  // how the difference was obtained, or why it is not known
+  double worst_ppm = 0;          // calc_difference: the largest deviation of Z_f, Z_b, C, V_b or energy
+  std::int64_t alarm_time_s = 0; // alarm: time with the conversion stopped
+  double V_fault_m3 = 0;         // alarm: line volume counted in the fault register
   std::string detail;
+  // The differences in ppm of the affected figures (NaN when either is not known or nothing is affected).
+  [[nodiscard]] double V_b_difference_ppm() const noexcept;
+  [[nodiscard]] double E_difference_ppm() const noexcept;
+  [[nodiscard]] bool counts() const noexcept { return severity != Severity::notice; }  // for the exit status
 };
 
 struct Contract {
@@ -113,8 +148,19 @@ struct AuditOptions {
   std::function<void(std::int64_t done, std::int64_t total)> progress;
 };
 
+// The what-if's total changes split into their causes: the changes applied
+// one after the other (method, analysis, base conditions with the combustion
+// reference held, then the combustion reference), each step's totals minus
+// the step before.
+struct WhatIfStep {
+  std::string cause;               // "method detail", "base conditions", "combustion reference", ...
+  std::int64_t V_b_um3 = 0, E_J = 0;  // the step's change
+};
+
 struct AuditResult {
   std::vector<AuditFinding> findings;
+  // Findings above a notice (they set the exit status).
+  [[nodiscard]] std::size_t counting() const noexcept;
   ReplayTotals replay;
   std::int64_t records = 0;          // chained records checked
   std::string log_id;
@@ -128,6 +174,8 @@ struct AuditResult {
   std::vector<std::pair<LoggedInterval, IntervalReplay>> over_bar;  // at most 100 intervals missing the bar, for the report
   std::int64_t over_bar_total = 0;
   bool what_if_run = false;
+  std::string what_if_combustion;    // which combustion reference the what-if uses, in words
+  std::vector<WhatIfStep> what_if_steps;
   ReplayTotals what_if;  // V_b_um3_logged / E_J_logged: as logged; *_replayed: with the what-if changes
 };
 

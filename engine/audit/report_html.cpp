@@ -482,7 +482,7 @@ void correction_chart(std::ostream& o, const ReportSeries& s, int chart_no) {
 
 constexpr const char* page_css = R"css(
 :root{--ink:#1f2b33;--muted:#5b6b75;--rule:#d5dde2;--paper:#fbfcfc;--band:#eef3f5;--accent:#176b69;
---crit:#a4262c;--warn:#9a5b00;--info:#3c5d7a;--ok:#2d6a3a}
+--crit:#a4262c;--warn:#9a5b00;--notice:#3c5d7a;--ok:#2d6a3a}
 *{box-sizing:border-box}
 body{margin:0 auto;max-width:1180px;padding:20px 28px 40px;background:var(--paper);color:var(--ink);
 font:14px/1.45 system-ui,-apple-system,"Segoe UI",Roboto,"DejaVu Sans",sans-serif}
@@ -516,9 +516,9 @@ tbody:not(.finding-group):not(.set-group) tr:nth-child(even) td{background:#f4f7
 table.wide{width:100%}
 tr.sev-critical td:first-child{border-left:5px solid var(--crit)}
 tr.sev-warning td:first-child{border-left:5px solid var(--warn)}
-tr.sev-info td:first-child{border-left:5px solid var(--info)}
-@media print{tr.sev-critical td:first-child,tr.sev-warning td:first-child,tr.sev-info td:first-child{print-color-adjust:exact;-webkit-print-color-adjust:exact}}
-.sev{font-weight:600}.sev.critical{color:var(--crit)}.sev.warning{color:var(--warn)}.sev.info{color:var(--info)}
+tr.sev-notice td:first-child{border-left:5px solid var(--notice)}
+@media print{tr.sev-critical td:first-child,tr.sev-warning td:first-child,tr.sev-notice td:first-child{print-color-adjust:exact;-webkit-print-color-adjust:exact}}
+.sev{font-weight:600}.sev.critical{color:var(--crit)}.sev.warning{color:var(--warn)}.sev.notice{color:var(--notice)}
 p.none{font-style:italic;color:var(--muted)}
 p.small,figcaption{font-size:12.5px;color:var(--muted)}
 figure{margin:10px 0 18px;padding:8px 10px;border:1px solid var(--rule);background:#fff;break-inside:avoid}
@@ -605,7 +605,14 @@ void summary_section(std::ostream& o, const AuditResult& r, const ReportHeader& 
          "<th class=\"n\">what-if</th><th class=\"n\">difference</th><th class=\"n\">ppm</th></tr></thead><tbody>";
     totals_row(o, "base volume, m\u00b3", r.what_if.V_b_um3_logged, r.what_if.V_b_um3_replayed);
     totals_row(o, "energy, MJ", r.what_if.E_J_logged, r.what_if.E_J_replayed);
-    o << "</tbody></table>";
+    o << "</tbody></table><p class=\"small\">" << esc(r.what_if_combustion) << ".</p>";
+    if (r.what_if_steps.size() > 1) {
+      o << "<table><thead><tr><th>change, applied in this order</th><th class=\"n\">\u0394V_b, m\u00b3</th><th class=\"n\">\u0394E, MJ</th>"
+           "</tr></thead><tbody>";
+      for (const auto& st : r.what_if_steps)
+        o << "<tr><th>" << esc(st.cause) << "</th><td class=\"n\">" << reg(st.V_b_um3) << "</td><td class=\"n\">" << reg(st.E_J) << "</td></tr>";
+      o << "</tbody></table>";
+    }
   }
 
   o << "<h3>The log's totals in the selection</h3>";
@@ -653,21 +660,32 @@ void findings_section(std::ostream& o, const AuditResult& r) {
   // Each finding is a tbody of two rows: its figures, then its detail across the table.
   o << "<div class=\"scroll\"><table class=\"findings wide\"><thead><tr><th class=\"n\">#</th><th>kind</th><th>severity</th>"
        "<th>point</th><th>from</th><th>to</th><th class=\"n\">intervals</th><th class=\"n\">seq</th>"
-       "<th class=\"n\">V_b at stake, m\u00b3</th><th class=\"n\">E at stake, MJ</th><th class=\"n\">worst, ppm</th></tr></thead>";
+       "<th class=\"n\">V_b affected, m\u00b3</th><th class=\"n\">E affected, MJ</th><th class=\"n\">\u0394V_b, m\u00b3</th>"
+       "<th class=\"n\">\u0394V_b, ppm</th><th class=\"n\">\u0394E, MJ</th><th class=\"n\">worst, ppm</th></tr></thead>";
   std::size_t no = 0;
   for (const auto& f : r.findings) {
     const std::string sev(severity_name(f.severity));
+    const std::string est = f.difference_estimated ? "\u2248\u2009" : "";
+    auto diff = [&](double v) { return std::isnan(v) ? std::string("not known") : est + num(v, 6); };
     o << "<tbody class=\"finding-group\"><tr class=\"finding sev-" << sev << "\"><td class=\"n\">" << ++no
       << "</td><td class=\"mono kind\">" << esc(kind_name(f.kind)) << "</td><td class=\"sev " << sev << "\">" << sev << "</td><td>"
       << (f.point.empty() ? std::string("\u2014") : esc(f.point)) << "</td><td class=\"t\">" << t_or_dash(f.from_utc_s)
       << "</td><td class=\"t\">" << t_or_dash(f.to_utc_s) << "</td><td class=\"n\">" << f.intervals << "</td><td class=\"n\">"
       << f.first_seq;
     if (f.last_seq != f.first_seq) o << "\u2013" << f.last_seq;
-    o << "</td><td class=\"n\">" << num(f.V_b_m3, 6) << "</td><td class=\"n\">" << num(f.E_MJ, 6) << "</td><td class=\"n\">"
+    o << "</td><td class=\"n\">" << num(f.V_b_affected_m3, 6) << "</td><td class=\"n\">" << num(f.E_affected_MJ, 6)
+      << "</td><td class=\"n\">" << diff(f.V_b_difference_m3) << "</td><td class=\"n\">" << ppm_text(f.V_b_difference_ppm())
+      << "</td><td class=\"n\">" << diff(f.E_difference_MJ) << "</td><td class=\"n\">"
       << (f.kind == Kind::calc_difference ? ppm_text(f.worst_ppm) : std::string("\u2014")) << "</td></tr><tr class=\"detail sev-"
-      << sev << "\"><td></td><td class=\"detail\" colspan=\"10\">" << esc(f.detail) << "</td></tr></tbody>";
+      << sev << "\"><td></td><td class=\"detail\" colspan=\"13\">" << esc(f.detail);
+    if (f.kind == Kind::alarm)
+      o << "; " << f.alarm_time_s << " s in alarm, fault volume " << num(f.V_fault_m3, 6) << " m\u00b3 (line)";
+    o << ". <em>Difference:</em> " << esc(f.difference_basis) << (f.difference_estimated ? " (an estimate)" : "") << "</td></tr></tbody>";
   }
-  o << "</table></div></section>";
+  o << "</table></div>";
+  o << "<p class=\"small\">Affected: the logged base volume and energy of the records a finding concerns. \u0394: the signed "
+       "difference, recomputed or estimated minus logged (\u2248 marks an estimate; negative: the log states too much), its ppm "
+       "of the affected volume. Worst: a calculation difference's largest deviation of Z_f, Z_b, C, V_b or energy.</p></section>";
 }
 
 void over_bar_section(std::ostream& o, const AuditResult& r) {
@@ -739,8 +757,8 @@ int charts_section(std::ostream& o, const ReportCollector& c) {
 void write_html_report(std::ostream& out, const AuditResult& r, const ReportCollector& charts, const ReportHeader& h) {
   // The body is written first so that the chart count is known for <body data-charts>.
   std::ostringstream body;
-  int crit = 0, warn = 0, info = 0;
-  for (const auto& f : r.findings) (f.severity == Severity::critical ? crit : f.severity == Severity::warning ? warn : info)++;
+  int crit = 0, warn = 0, notice = 0;
+  for (const auto& f : r.findings) (f.severity == Severity::critical ? crit : f.severity == Severity::warning ? warn : notice)++;
 
   body << "<header><h1>Audit of interval log <code>" << esc(h.log_file) << "</code></h1><dl class=\"meta\">"
        << "<dt>log id</dt><dd class=\"mono\">" << esc(r.log_id) << "</dd>"
@@ -757,9 +775,12 @@ void write_html_report(std::ostream& out, const AuditResult& r, const ReportColl
   if (r.findings.empty())
     body << "<p class=\"verdict clean\" id=\"verdict\">Nothing found<span>" << r.replay.intervals
          << " intervals audited; the audit's exit status is 0.</span></p>";
+  else if (r.counting() == 0)
+    body << "<p class=\"verdict clean\" id=\"verdict\">Nothing above a notice<span>" << r.replay.intervals << " intervals audited; "
+         << notice << " notice" << (notice == 1 ? "" : "s") << " listed below; the audit's exit status is 0.</span></p>";
   else
     body << "<p class=\"verdict found\" id=\"verdict\">" << r.findings.size() << " finding" << (r.findings.size() == 1 ? "" : "s")
-         << "<span>" << crit << " critical, " << warn << " warning, " << info << " info; the audit's exit status is 1.</span></p>";
+         << "<span>" << crit << " critical, " << warn << " warning, " << notice << " notice; the audit's exit status is 1.</span></p>";
   summary_section(body, r, h);
   findings_section(body, r);
   over_bar_section(body, r);

@@ -76,10 +76,11 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     ~EndTx() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
   } end_tx{db};
 
-  auto report = [&](const Row& r, std::string kind, std::string detail) {
+  auto report = [&](const Row& r, std::string kind, std::string detail, std::optional<std::int64_t> dV = std::nullopt,
+                    std::optional<std::int64_t> dE = std::nullopt) {
     ++out.findings_total;
     if (out.findings.size() < max_findings)
-      out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail)});
+      out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail), dV, dE});
   };
 
   std::vector<Cursor> cursors;
@@ -184,12 +185,13 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       const auto vf = as_i64(r.values[i_rvf]), vb = as_i64(r.values[i_rvb]), vx = as_i64(r.values[i_rvx]),
                  e = as_i64(r.values[i_re]), m = as_i64(r.values[i_rm]);
       auto q = [](std::optional<double> v, double quantum) { return v ? std::llround(*v / quantum) : 0LL; };
+      const std::int64_t dvb = q(as_f64(r.values[i_vb]), volume_quantum_m3) - vb, de = q(as_f64(r.values[i_e]), 1e-6) - e;
       if (q(as_f64(r.values[i_vf]), volume_quantum_m3) != vf)
-        report(r, "register_mismatch", "V_f_um3 does not equal V_f_m3 at 1e-6 m3");
-      else if (q(as_f64(r.values[i_vb]), volume_quantum_m3) != vb)
-        report(r, "register_mismatch", "V_b_um3 does not equal V_b_m3 at 1e-6 m3");
-      else if (q(as_f64(r.values[i_e]), 1e-6) != e)  // E_MJ in MJ, E_J in J
-        report(r, "register_mismatch", "E_J does not equal E_MJ at 1 J");
+        report(r, "register_mismatch", "V_f_um3 does not equal V_f_m3 at 1e-6 m3", dvb, de);
+      else if (dvb != 0)
+        report(r, "register_mismatch", "V_b_um3 does not equal V_b_m3 at 1e-6 m3", dvb, de);
+      else if (de != 0)  // E_MJ in MJ, E_J in J
+        report(r, "register_mismatch", "E_J does not equal E_MJ at 1 J", dvb, de);
       else if (q(as_f64(r.values[i_m]), mass_quantum_kg) != m)
         report(r, "register_mismatch", "mass_mg does not equal mass_kg at 1e-6 kg");
       else if (vx < 0 || vx > vf || vb < 0)
@@ -242,7 +244,10 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
             std::to_string(as_i64(r.values[q_cvb])) + ", intervals sum to " + std::to_string(p.cum.V_b_um3) + ")";
       else if (s.n > 0 && (s.min_start < start || s.max_end > end))
         d = "intervals since the previous " + std::string(hour ? "hourly" : "daily") + " record lie outside its period";
-      if (!d.empty()) report(r, "total_mismatch", d);
+      const bool cum = d.rfind("register readings", 0) == 0;
+      if (!d.empty())
+        report(r, "total_mismatch", d, (cum ? p.cum.V_b_um3 : s.V_b) - as_i64(r.values[cum ? q_cvb : q_vb]),
+               (cum ? p.cum.E_J : s.E) - as_i64(r.values[cum ? q_ce : q_e]));
       s = Sums{};
     } else if (r.table == Table::correction_set) {
       std::string d;
@@ -261,7 +266,8 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       else if (as_i64(r.values[c_vbr]) != set_sums.V_b_replaced || as_i64(r.values[c_er]) != set_sums.E_replaced)
         d = "replaced totals V_b_um3 = " + std::to_string(as_i64(r.values[c_vbr])) + ", E_J = " + std::to_string(as_i64(r.values[c_er])) +
             "; the records it replaces sum to " + std::to_string(set_sums.V_b_replaced) + ", " + std::to_string(set_sums.E_replaced);
-      if (!d.empty()) report(r, "total_mismatch", d);
+      if (!d.empty())
+        report(r, "total_mismatch", d, set_sums.V_b - as_i64(r.values[c_vbc]), set_sums.E - as_i64(r.values[c_ec]));
       set_sums = SetSums{};
     }
   };
@@ -300,7 +306,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
         if (out.findings.size() < max_findings)
           out.findings.push_back({std::string(table_info(prev_table).name), prev_seq, prev_time, "link_broken",
                                   "its hash is not the prev_hash stored in " + where(r) +
-                                      ": the record was changed and re-hashed, or replaced"});
+                                      ": the record was changed and re-hashed, or replaced", {}, {}});
       }
     }
     check_totals(r);
@@ -320,7 +326,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       if (out.findings.size() < max_findings)
         out.findings.push_back({"interval", d.i64(2), 0, "bad_correction",
                                 "interval seq " + std::to_string(d.i64(0)) + " is replaced by " + std::to_string(d.i64(1)) +
-                                    " corrections (a correction of a correction names the correction)"});
+                                    " corrections (a correction of a correction names the correction)", {}, {}});
     }
   }
   if (set_sums.n > 0 && has_table(out.schema_version, Table::correction_set)) {  // correcting intervals no correction set accounts for
@@ -328,11 +334,11 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     if (out.findings.size() < max_findings)
       out.findings.push_back({"interval", set_sums.first, 0, "bad_correction",
                               std::to_string(set_sums.n) + " correcting interval(s) from seq " + std::to_string(set_sums.first) +
-                                  " on belong to no correction set (a set is written last, with its records)"});
+                                  " on belong to no correction set (a set is written last, with its records)", {}, {}});
   }
   if (out.records == 0) {
     ++out.findings_total;
-    out.findings.push_back({"log_header", 1, 0, "removed", "the log holds no records (the log header is missing)"});
+    out.findings.push_back({"log_header", 1, 0, "removed", "the log holds no records (the log header is missing)", {}, {}});
   }
   out.last_seq = prev_seq;
   out.head_hash = prev_hash;

@@ -26,6 +26,7 @@
 
 #include <cstdint>
 #include <map>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -39,6 +40,10 @@ struct Finding {
   std::int64_t time_utc_s;  // its start or event time, or 0 when it has none
   std::string kind;    // changed, link_broken, removed, inserted, register_mismatch, total_mismatch, ...
   std::string detail;  // human-readable
+  // totals_mismatch / register_mismatch: what the record's base volume and
+  // energy should be minus what it says (the sum of its intervals minus its
+  // total; a register's own quantity minus the register), in register units.
+  std::optional<std::int64_t> V_b_um3_difference, E_J_difference;
 };
 
 struct PointTotals {

@@ -35,8 +35,8 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
                        DEPENDS cli.correct_refusals_wrote_nothing)
 
   zcorr_cli_test(NAME correct_audit ARGS audit --db ${CORR_DB}
-                 MATCH "intervals  10080 \\(10080 recomputed.*corrected  base volume 12772369.578410 m3 as recorded, 127[0-9.]+ m3 corrected.*correction set seq [0-9]+ HF-1 .*reason: contract base pressure.*nothing found")
-  zcorr_cli_test(NAME correct_audit_contract ARGS audit --db ${CORR_DB} --contract ${CORR_DIR}/contract.txt MATCH "nothing found")
+                 MATCH "intervals  10080 \\(10080 recomputed.*corrected  base volume 12772369.578410 m3 as recorded, 127[0-9.]+ m3 corrected.*correction set seq [0-9]+ HF-1 .*reason: contract base pressure.*nothing above a notice")
+  zcorr_cli_test(NAME correct_audit_contract ARGS audit --db ${CORR_DB} --contract ${CORR_DIR}/contract.txt MATCH "nothing above a notice")
   zcorr_cli_test(NAME correct_audit_json ARGS audit --db ${CORR_DB} --format json MATCH "\"correction_sets\": \\[[^]]*\"change\": \"base_p 101560 Pa\"")
   zcorr_cli_test(NAME correct_verify ARGS verify --db ${CORR_DB} MATCH "clean")
   # Daily records as recorded, beside the corrected sums (the first contract day of the demo).

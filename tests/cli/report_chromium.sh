@@ -93,14 +93,16 @@ grep -q 'broken_chain' out/tampered.dom.stdout || fail "tampered: no broken_chai
 grep -q 'no interval of this point could be recomputed' out/tampered.dom.stdout || fail "tampered: the chart does not say nothing was recomputed"
 
 # A copy of the week with a correction set over one day (a reason with markup characters in it): the audit
-# is clean, the report lists the set and draws the as-recorded line beside the corrected one.
+# has nothing above a notice (the week's pressure spike), the report lists the set and draws the as-recorded line beside the corrected one.
 sqlite3 "$demo_db" ".backup out/demo-corrected.db"
 "$zcorr" correct --db out/demo-corrected.db --point HF-1 --from 2026-03-04T06:00:00Z --to 2026-03-05T06:00:00Z \
   --base-p "101.56 kPa" --reason 'contract <base_p> is 101.56 kPa & "not" 101.325' > out/correct.txt 2>&1 ||
   fail "zcorr correct: $(cat out/correct.txt)"
 run_audit corrected 0 --db out/demo-corrected.db
-check_report corrected 0 3
-grep -q '<p class="none">The audit found nothing' out/corrected.dom.stdout || fail "corrected: the empty findings are not stated"
+check_report corrected 1 3
+grep -q 'Nothing above a notice' out/corrected.dom.stdout || fail "corrected: the verdict does not say nothing is above a notice"
+grep -q '<td class="mono kind">alarm</td><td class="sev notice">notice</td>' out/corrected.dom.stdout ||
+  fail "corrected: the week's alarm is not listed as a notice"
 grep -q '<section id="corrections">' out/corrected.dom.stdout || fail "corrected: no table of correction sets"
 grep -q 'contract &lt;base_p&gt; is 101.56 kPa &amp; "not" 101.325' out/corrected.dom.stdout || fail "corrected: the reason is not shown as text"
 grep -q '<path class="v-asrec"' out/corrected.dom.stdout || fail "corrected: no as-recorded line in the volume chart"
