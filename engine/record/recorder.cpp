@@ -219,7 +219,7 @@ void Recorder::add_sample(const RawSample& raw) {
   if (prev_t_ != INT64_MIN && prev_t_ < cur_start_) {
     s.flags |= iflag::gap;
     event(raw.t_utc_s, "gap", "warning",
-          "no data from " + format_time_utc(prev_t_) + " to " + format_time_utc(cur_start_) + "; line " + std::to_string(raw.line) +
+          "no sample between " + format_time_utc(prev_t_) + " and " + format_time_utc(raw.t_utc_s) + ": line " + std::to_string(raw.line) +
               " covers " + std::to_string(raw.t_utc_s - prev_t_) + " s and its volume is counted in the interval from " +
               format_time_utc(cur_start_),
           raw.line);
