@@ -252,6 +252,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
       j["intervals_over_bar"].push_back({{"seq", iv.seq}, {"point", iv.point}, {"start", record::format_time_utc(iv.start_utc_s)},
                                          {"Z_f_logged", json_num(iv.Z_f)}, {"Z_f_replayed", json_num(rp.Z_f)},
                                          {"V_b_m3_logged", iv.V_b_m3}, {"V_b_m3_replayed", rp.V_b_m3},
+                                         {"V_b_difference_ppm", json_or_null(rp.dV_b_ppm)}, {"estimated", rp.estimated},
                                          {"worst_ppm", json_num(rp.worst_ppm())}});
     std::cout << j.dump(2) << '\n';
   } else if (o.format == Format::csv) {
@@ -279,7 +280,8 @@ int run_audit_cmd(const AuditCliOptions& o) {
     for (const auto& [iv, rp] : r.over_bar)
       std::cout << "  seq " << iv.seq << ' ' << iv.point << ' ' << record::format_time_utc(iv.start_utc_s) << "  Z_f "
                 << fixed(iv.Z_f, 9) << " -> " << fixed(rp.Z_f, 9) << ", V_b " << fixed(iv.V_b_m3, 6) << " -> " << fixed(rp.V_b_m3, 6)
-                << " m3 (" << fixed(rp.worst_ppm(), 1) << " ppm)\n";
+                << " m3 (" << (rp.estimated ? "~" : "") << fixed(rp.dV_b_ppm, 1) << " ppm), largest deviation " << fixed(rp.worst_ppm(), 1)
+                << " ppm\n";
     if (r.over_bar_total > static_cast<std::int64_t>(r.over_bar.size()))
       std::cout << "  ... " << (r.over_bar_total - static_cast<std::int64_t>(r.over_bar.size())) << " more\n";
     if (r.what_if_run)
