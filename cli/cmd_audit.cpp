@@ -173,6 +173,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
     j["db"] = o.db;
     j["log_id"] = r.log_id;
     j["records"] = r.records;
+    j["snapshot_head_seq"] = r.head_seq;
     j["head_hash"] = r.head_hash_hex;
     j["V_b_m3"] = record::decimal(r.V_b_um3, 6);
     j["E_MJ"] = record::decimal(r.E_J, 6);
@@ -266,8 +267,8 @@ int run_audit_cmd(const AuditCliOptions& o) {
                 << (f.difference_estimated ? "yes" : "no") << ',' << fixed(f.worst_ppm, 3) << ',' << f.alarm_time_s << ','
                 << fixed(f.V_fault_m3, 6) << ',' << csv_field(f.difference_basis) << ',' << csv_field(f.detail) << '\n';
   } else {
-    std::cout << "log        " << o.db << " (id " << r.log_id << "), " << r.records << " chained records, head " << r.head_hash_hex
-              << '\n'
+    std::cout << "log        " << o.db << " (id " << r.log_id << "), " << r.records << " chained records up to seq " << r.head_seq
+              << " (the audit's snapshot), head " << r.head_hash_hex << '\n'
               << "intervals  " << t.intervals << " (" << t.replayed << " recomputed, " << t.not_replayed << " not)\n"
               << "base vol.  logged " << record::decimal(t.V_b_um3_logged, 6) << " m3, recomputed "
               << record::decimal(t.V_b_um3_replayed, 6) << " m3\n"

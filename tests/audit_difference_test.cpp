@@ -257,3 +257,55 @@ TEST(AuditDifference, StatedHsConvertedToAnotherCombustionReference) {
 
 }  // namespace
 }  // namespace zcorr
+
+namespace zcorr {
+namespace {
+
+// The audit reads one snapshot: a recording that appends intervals under a
+// new analysis while the audit runs (here: from the audit's first progress
+// call, after it fixed its head) changes nothing in the result, and the
+// result names the head it read up to.
+TEST(AuditSnapshot, AppendsDuringTheAuditAreNotRead) {
+  testing::VirialTestGas gas;
+  const auto file = recorded("snapshot", testing::test_config(), gas, 6 * 60 * 2, testing::analysis_csv(t0));
+  const std::int64_t head_before = scalar(file, "SELECT max(seq) FROM (SELECT seq FROM interval UNION ALL SELECT seq FROM event "
+                                                "UNION ALL SELECT seq FROM qtr UNION ALL SELECT seq FROM gas_analysis)");
+  const std::int64_t intervals_before = scalar(file, "SELECT count(*) FROM interval");
+  audit::AuditOptions o;
+  bool appended = false;
+  o.progress = [&](std::int64_t done, std::int64_t) {
+    if (done != 0 || appended) return;
+    appended = true;
+    record::Log w(file, {record::OpenMode::writer});
+    const std::string later = "valid_from,source,Hs_MJ_per_m3,methane,ethane,nitrogen,carbon_dioxide\n" + std::to_string(t0 + 7200) +
+                              ",GC test,39.9,0.92,0.05,0.02,0.01\n";
+    testing::record_text(w, testing::test_config(), gas, testing::sample_csv(t0 + 7200, 6 * 60), later);
+  };
+  const auto r = audit_of(file, o);
+  ASSERT_TRUE(appended);
+  EXPECT_GT(scalar(file, "SELECT count(*) FROM interval"), intervals_before);  // the recording did append
+  for (const auto& f : r.findings) ADD_FAILURE() << audit::kind_name(f.kind) << ": " << f.detail;
+  EXPECT_EQ(r.head_seq, head_before);
+  EXPECT_EQ(r.replay.intervals, intervals_before);
+}
+
+// An interval naming an analysis the log does not hold is not recomputed,
+// and the finding says why; it is not a calculation difference.
+TEST(AuditSnapshot, MissingAnalysisIsNotRecomputed) {
+  testing::VirialTestGas gas;
+  const auto file = recorded("missing_analysis", testing::test_config(), gas, 6 * 60, testing::analysis_csv(t0));
+  const std::int64_t seq = scalar(file, "SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 10");
+  ASSERT_EQ(testing::run_shell(file, "DROP TRIGGER interval_no_update; UPDATE interval SET analysis_seq = 999999 WHERE seq = " +
+                                         std::to_string(seq)),
+            0);
+  const auto r = audit_of(file);
+  const auto nr = of_kind(r, Kind::not_replayed);
+  ASSERT_EQ(nr.size(), 1u);
+  EXPECT_EQ(nr[0].first_seq, seq);
+  EXPECT_NE(nr[0].detail.find("gas analysis record seq 999999 is not in the log"), std::string::npos) << nr[0].detail;
+  EXPECT_TRUE(std::isnan(nr[0].V_b_difference_m3));
+  EXPECT_TRUE(of_kind(r, Kind::calc_difference).empty());
+}
+
+}  // namespace
+}  // namespace zcorr

@@ -209,6 +209,12 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     }
   }
 
+  // The snapshot: every read below is bounded by the head the log has now.
+  // The log is append-only, so the records up to it are one consistent
+  // prefix on every connection, whatever a writer appends meanwhile.
+  const std::int64_t head = record::head_seq(log);
+  res.head_seq = head;
+
   // 1. The chain and the totals (the verifier), on a second connection in a
   // second thread while this one replays (both only read the file).
   record::VerifyResult v;
@@ -217,7 +223,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   auto verify = [&] {
     try {
       record::Log vlog(log.file(), {record::OpenMode::read_only});
-      v = record::verify_log(vlog, opt.max_chain_findings);
+      v = record::verify_log(vlog, opt.max_chain_findings, head);
     } catch (...) {
       verify_error = std::current_exception();
     }
@@ -233,8 +239,9 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   {
     Stmt s(db,
            "SELECT c.seq, c.point, c.valid_from_utc_s FROM point_config c WHERE NOT EXISTS (SELECT 1 FROM event e WHERE "
-           "e.kind = 'config_change' AND e.ref_seq = c.seq) AND (?1 IS NULL OR c.point = ?1) ORDER BY c.seq");
+           "e.kind = 'config_change' AND e.ref_seq = c.seq AND e.seq <= ?2) AND (?1 IS NULL OR c.point = ?1) AND c.seq <= ?2 ORDER BY c.seq");
     if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
+    s.bind(2, head);
     while (s.step()) {
       AuditFinding a;
       a.kind = Kind::config_without_event;
@@ -242,7 +249,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
       a.point = s.text(1);
       a.first_seq = a.last_seq = s.i64(0);
       a.from_utc_s = a.to_utc_s = s.i64(2);
-      Stmt q(db, "SELECT count(*), min(start_utc_s), max(end_utc_s), total(V_b_um3), total(E_J), min(seq), max(seq) FROM interval WHERE config_seq = ?");
+      Stmt q(db, "SELECT count(*), min(start_utc_s), max(end_utc_s), total(V_b_um3), total(E_J), min(seq), max(seq) FROM interval WHERE config_seq = ?1 AND seq <= ?2");
+      q.bind(2, head);
       q.bind(1, a.first_seq);
       if (q.step() && q.i64(0) > 0) {
         a.intervals = q.i64(0);
@@ -263,11 +271,12 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   // 3. One pass over the intervals: sequence, analysis age, contract, range, replay.
   std::set<std::int64_t> corrected;
   {
-    Stmt s(db, "SELECT corrects_seq FROM interval WHERE corrects_seq IS NOT NULL");
+    Stmt s(db, "SELECT corrects_seq FROM interval WHERE corrects_seq IS NOT NULL AND seq <= ?1");
+    s.bind(1, head);
     while (s.step()) corrected.insert(s.i64(0));
   }
   const MethodFactory what_if_methods = methods;
-  Replayer rp(log, std::move(methods));
+  Replayer rp(log, std::move(methods), {}, {}, head);
   std::map<std::int64_t, std::string> contract_diff;  // config seq -> differences ("" = none)
   auto contract_check = [&](std::int64_t config_seq, const std::string& point) -> const std::string& {
     auto it = contract_diff.find(config_seq);
@@ -294,7 +303,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     w.method = opt.contract->method;
     w.base_T_K = opt.contract->base_T_K;
     w.base_p_Pa = opt.contract->base_p_Pa;
-    contract_rp = std::make_unique<Replayer>(log, what_if_methods, EvalOptions{}, w);
+    contract_rp = std::make_unique<Replayer>(log, what_if_methods, EvalOptions{}, w, head);
   }
 
   Runs runs(res.findings);
@@ -307,7 +316,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
 
   std::int64_t progress_total = 0, progress_done = 0;
   if (opt.progress) {
-    Stmt s(db, "SELECT count(*) FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3");
+    Stmt s(db, "SELECT count(*) FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3 AND seq <= ?4");
+    s.bind(4, head);
     if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
     s.bind(2, opt.selection.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min()));
     s.bind(3, opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));
@@ -571,7 +581,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     std::int64_t V_before = 0, E_before = 0;
     for (std::size_t k = 0; k < steps.size(); ++k) {
       ReplayTotals t;
-      Replayer wr(log, what_if_methods, {}, steps[k].second);
+      Replayer wr(log, what_if_methods, {}, steps[k].second, head);
       wr.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
         if (!corrected.count(iv.seq)) add_to_totals(t, iv, r);
       }, &corrected);
@@ -600,9 +610,9 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     const auto hi = opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max());
     Stmt s(db,
            "SELECT seq, point, created_utc_s, reason, method, base_T_K, base_p_Pa, analysis_seq, first_seq, last_seq FROM correction_set "
-           "WHERE (?1 IS NULL OR point = ?1) AND to_utc_s > ?2 AND from_utc_s < ?3 ORDER BY seq");
+           "WHERE (?1 IS NULL OR point = ?1) AND to_utc_s > ?2 AND from_utc_s < ?3 AND seq <= ?4 ORDER BY seq");
     if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
-    s.bind(2, lo).bind(3, hi);
+    s.bind(2, lo).bind(3, hi).bind(4, head);
     Stmt q(db,
            "SELECT count(*), coalesce(sum(c.V_b_um3), 0), coalesce(sum(c.E_J), 0), coalesce(sum(o.V_b_um3), 0), coalesce(sum(o.E_J), 0), "
            "min(c.start_utc_s), max(c.end_utc_s) FROM interval c LEFT JOIN interval o ON o.seq = c.corrects_seq "

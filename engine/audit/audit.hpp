@@ -163,6 +163,7 @@ struct AuditResult {
   [[nodiscard]] std::size_t counting() const noexcept;
   ReplayTotals replay;
   std::int64_t records = 0;          // chained records checked
+  std::int64_t head_seq = 0;         // the snapshot: every record read is at or before this chain position
   std::string log_id;
   std::string head_hash_hex;
   // The log's own totals (every interval that is not corrected) in the selection.

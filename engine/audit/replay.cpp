@@ -99,20 +99,22 @@ void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
   iv.Fz = opt(s, 33);
 }
 
-Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if)
-    : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)) {
+Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if, std::int64_t head_seq)
+    : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)), head_seq_(head_seq) {
   using record::Stmt;
   {
     std::string sql = "SELECT ";
     for (std::size_t i = 0; i < std::size(record::cols::point_config); ++i)
       sql += (i ? ", " : "") + std::string(record::cols::point_config[i]);
-    Stmt s(log_.db(), sql + " FROM point_config ORDER BY seq");
+    Stmt s(log_.db(), sql + " FROM point_config WHERE seq <= ?1 ORDER BY seq");
+    s.bind(1, head_seq_);
     std::vector<record::Value> v(std::size(record::cols::point_config));
     while (s.step()) {
       for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
       configs_[s.i64(0)] = record::config_from_values(v);
     }
-    Stmt c(log_.db(), "SELECT seq, corrects_seq FROM point_config WHERE corrects_seq IS NOT NULL ORDER BY seq");
+    Stmt c(log_.db(), "SELECT seq, corrects_seq FROM point_config WHERE corrects_seq IS NOT NULL AND seq <= ?1 ORDER BY seq");
+    c.bind(1, head_seq_);
     while (c.step()) {
       std::int64_t root = c.i64(1);
       if (auto it = config_root_.find(root); it != config_root_.end()) root = it->second;  // a correction of a correction
@@ -122,7 +124,8 @@ Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions ev
   {
     std::string sql = "SELECT seq, valid_from_utc_s, sampled_utc_s, Hs_MJ_per_m3";
     for (std::size_t i = 0; i < max_components; ++i) sql += ", x_" + std::string(component_name(i));
-    Stmt s(log_.db(), sql + " FROM gas_analysis ORDER BY seq");
+    Stmt s(log_.db(), sql + " FROM gas_analysis WHERE seq <= ?1 ORDER BY seq");
+    s.bind(1, head_seq_);
     while (s.step()) {
       GasRecord g;
       g.seq = s.i64(0);
@@ -167,6 +170,9 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     const auto ait = analysis_seq ? analyses_.find(analysis_seq) : analyses_.end();
     if (analysis_seq && ait == analyses_.end()) {
       gas_.status = "no_analysis";
+      gas_analysis_ = -1;
+      r.why_not = "its gas analysis record seq " + std::to_string(analysis_seq) + " is not in the log";
+      return r;
     } else if (ait != analyses_.end()) {
       // The analysis' Hs is stated at the base conditions (and the usual
       // combustion reference) of the recorded configuration.
@@ -314,8 +320,9 @@ void Replayer::run(const Selection& sel, const std::function<void(const LoggedIn
   IntervalReplay skipped;
   skipped.why_not = "replaced by a correction";
   record::Stmt s(log_.db(), "SELECT " + logged_interval_columns() +
-                                " FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3"
+                                " FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND start_utc_s < ?3 AND seq <= ?4"
                                 " ORDER BY point, start_utc_s, seq");
+  s.bind(4, head_seq_);
   if (sel.point) s.bind(1, std::string_view(*sel.point));
   s.bind(2, sel.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min()));
   s.bind(3, sel.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));

@@ -161,7 +161,9 @@ void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalRepl
 // Reads a log's configurations and analyses once, then replays intervals.
 class Replayer {
  public:
-  Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval = {}, WhatIf what_if = {});
+  // Only the records up to head_seq are read (an audit's snapshot of a log a writer may be appending to).
+  Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval = {}, WhatIf what_if = {},
+           std::int64_t head_seq = std::numeric_limits<std::int64_t>::max());
   Replayer(const Replayer&) = delete;
   Replayer& operator=(const Replayer&) = delete;
 
@@ -186,6 +188,7 @@ class Replayer {
   MethodFactory factory_;
   EvalOptions eval_;
   WhatIf what_if_;
+  std::int64_t head_seq_;
   std::map<std::int64_t, record::PointConfig> configs_;
   std::map<std::int64_t, std::int64_t> config_root_;  // a correcting configuration -> the recorded one it goes back to
   std::map<std::int64_t, GasRecord> analyses_;

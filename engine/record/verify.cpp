@@ -1,5 +1,6 @@
 #include "record/verify.hpp"
 
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <cstring>
@@ -66,7 +67,17 @@ struct PointState {
 
 }  // namespace
 
-VerifyResult verify_log(const Log& log, std::size_t max_findings) {
+std::int64_t head_seq(const Log& log) {
+  std::int64_t head = 0;
+  for (std::size_t t = 0; t < table_count; ++t) {
+    if (!has_table(log.schema_version(), static_cast<Table>(t))) continue;
+    Stmt s(log.db(), "SELECT max(seq) FROM " + std::string(tables[t].name));
+    if (s.step() && !s.is_null(0)) head = std::max(head, s.i64(0));
+  }
+  return head;
+}
+
+VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq) {
   VerifyResult out;
   out.schema_version = log.schema_version();
   sqlite3* db = log.db();
@@ -89,8 +100,9 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     if (!has_table(out.schema_version, static_cast<Table>(t))) continue;  // an older log: no such table yet
     std::string sql = "SELECT ";
     for (auto c : info.columns) sql += std::string(c) + ", ";
-    sql += "prev_hash, hash FROM " + std::string(info.name) + " ORDER BY seq";
+    sql += "prev_hash, hash FROM " + std::string(info.name) + " WHERE seq <= ?1 ORDER BY seq";
     Cursor c{static_cast<Table>(t), Stmt(db, sql)};
+    c.stmt.bind(1, head_seq);
     c.has = c.stmt.step();
     if (c.has) c.seq = c.stmt.i64(0);
     cursors.push_back(std::move(c));
@@ -319,8 +331,9 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
   }
   {  // a record replaced by more than one correction is counted twice in any corrected total
-    Stmt d(db, "SELECT corrects_seq, count(*), max(seq) FROM interval WHERE corrects_seq IS NOT NULL GROUP BY corrects_seq HAVING count(*) > 1 "
-               "ORDER BY corrects_seq");
+    Stmt d(db, "SELECT corrects_seq, count(*), max(seq) FROM interval WHERE corrects_seq IS NOT NULL AND seq <= ?1 GROUP BY corrects_seq "
+               "HAVING count(*) > 1 ORDER BY corrects_seq");
+    d.bind(1, head_seq);
     while (d.step()) {
       ++out.findings_total;
       if (out.findings.size() < max_findings)

@@ -25,6 +25,7 @@
 #pragma once
 
 #include <cstdint>
+#include <limits>
 #include <map>
 #include <optional>
 #include <string>
@@ -63,6 +64,12 @@ struct VerifyResult {
   std::int64_t findings_total = 0;
 };
 
-[[nodiscard]] VerifyResult verify_log(const Log& log, std::size_t max_findings = 50);
+// head_seq: verify only the records up to that chain position (the audit's
+// snapshot: the log is append-only, so the records up to a head it read once
+// are one consistent prefix, whatever a writer appends meanwhile).
+[[nodiscard]] VerifyResult verify_log(const Log& log, std::size_t max_findings = 50,
+                                      std::int64_t head_seq = std::numeric_limits<std::int64_t>::max());
+// The highest chain position in the log (0 when it holds none).
+[[nodiscard]] std::int64_t head_seq(const Log& log);
 
 }  // namespace zcorr::record
