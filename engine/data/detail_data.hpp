@@ -29,6 +29,9 @@
 // result (Z = 1.173801364147326, from memory) by 4.1e-6 and Z in the normal
 // range was off by up to about 2e-4; with g_48 = 0 Z and density of that
 // mixture are reproduced to 2e-15. No other value changed (detail_source/README.md).
+// That reproduction pins, jointly, the exponents and flags of the weakly active
+// terms above and of terms 8-12, except b_13, k_13 and all of term 35
+// (tests/detail_tables_test.cpp).
 //
 // Gas constant and molar masses: the values the standard states
 // (R = 8.31451 J/(mol K); M_i from AGA Report No. 8, 1994).
