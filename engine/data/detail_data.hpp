@@ -23,6 +23,16 @@
 // particular K_ij(H2S, n-nonane) = 0.952441, which breaks the smooth H2S-
 // n-alkane progression. Compare with the printed tables when a copy is at hand.
 //
+// Correction 2026-12-02: term 48 had the flag g_48 = 1; it is g_48 = 0 (the
+// g-flag terms are 5, 6, 25, 29, 32, 33, 34, 51, 54, 56). With g_48 = 1 the
+// AGA8 reference-code test mixture at 400 K / 50 MPa missed its recalled
+// result (Z = 1.173801364147326, from memory) by 4.1e-6 and Z in the normal
+// range was off by up to about 2e-4; with g_48 = 0 Z and density of that
+// mixture are reproduced to 2e-15. No other value changed (detail_source/README.md).
+// That reproduction pins, jointly, the exponents and flags of the weakly active
+// terms above and of terms 8-12, except b_13, k_13 and all of term 35
+// (tests/detail_tables_test.cpp).
+//
 // Gas constant and molar masses: the values the standard states
 // (R = 8.31451 J/(mol K); M_i from AGA Report No. 8, 1994).
 //
@@ -107,7 +117,7 @@ inline constexpr std::array<Term, 58> terms{{
     /* 45 */ {{-0.005399808, -5399808, -9}, 5, 0, 0, 2, 0, 0, 0, 0, 0},
     /* 46 */ {{-0.2432567, -2432567, -7}, 5, 1, 2, 18, 0, 0, 0, 0, 0},
     /* 47 */ {{0.04987016, 4987016, -8}, 5, 1, 2, 6, 0, 1, 0, 0, 0},
-    /* 48 */ {{0.003733797, 3733797, -9}, 5, 1, 4, 16, 1, 0, 0, 0, 0},
+    /* 48 */ {{0.003733797, 3733797, -9}, 5, 1, 4, 16, 0, 0, 0, 0, 0},
     /* 49 */ {{1.874951, 1874951, -6}, 5, 1, 4, 46, 0, 1, 0, 0, 0},
     /* 50 */ {{0.002168144, 2168144, -9}, 6, 0, 0, 3, 0, 0, 0, 0, 0},
     /* 51 */ {{-0.6587164, -6587164, -7}, 6, 1, 2, 10, 1, 0, 0, 0, 0},

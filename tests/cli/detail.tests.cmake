@@ -43,3 +43,16 @@ zcorr_cli_test(NAME detail_convert
                ARGS convert --method detail --V "1000 m3" --T 270K --p "6 MPa"
                     --gas "methane=0.965,nitrogen=0.003,CO2=0.006,ethane=0.018,propane=0.0045,iC4=0.001,nC4=0.001,iC5=0.0005,nC5=0.0003,nC6=0.0007"
                MATCH "Z_f +0\\.84052[5-9][0-9]* +\\(detail\\).*Z_b +0\\.99[0-9]+ +\\(detail\\).*status +ok")
+# The 21-component test mixture of the AGA8 (2017) reference code at 400 K and
+# 50 MPa: Z = 1.173801364147326, molar density 12.80792403648801 mol/L (from
+# memory, confirmed by reproducing both Z and density to 1e-15; see
+# tests/detail_test.cpp). The patterns accept 1e-9 relative:
+# Z in [1.17380136297, 1.17380136530), rho in [12.807924024, 12.807924049).
+set(DETAIL_REF_Z "1\\.17380136(29[7-9]|3[0-9]|4[0-9]|5[0-2])[0-9]*")
+set(DETAIL_REF_RHO "12\\.807924(02[4-9]|03[0-9]|04[0-8])[0-9]*")
+zcorr_cli_test(NAME detail_reference_mixture
+               ARGS z --method detail --T 400K --p "50 MPa" --format csv
+                    --gas "methane=0.77824,nitrogen=0.02,carbon_dioxide=0.06,ethane=0.08,propane=0.03,isobutane=0.0015,n_butane=0.003,isopentane=0.0005,n_pentane=0.00165,n_hexane=0.00215,n_heptane=0.00088,n_octane=0.00024,n_nonane=0.00015,n_decane=0.00009,hydrogen=0.004,oxygen=0.005,carbon_monoxide=0.002,water=0.0001,hydrogen_sulfide=0.0025,helium=0.007,argon=0.001"
+               MATCH "\n400,50000,${DETAIL_REF_Z},${DETAIL_REF_RHO},[^\n]*,ok;range=expanded")
+zcorr_cli_test(NAME detail_reference_mixture_batch ARGS z --method detail --input ${CLI_DATA}/detail_reference_mixture.csv
+               MATCH "\naga8_test_mixture,400,50000,[0-9.,]+,0\\.001,${DETAIL_REF_Z},${DETAIL_REF_RHO},ok;range=expanded")
