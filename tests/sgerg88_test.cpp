@@ -256,6 +256,18 @@ TEST(Sgerg88, LowDensityLimitGivesB) {
   const auto zero = sgerg88::z_factor(m, 300.0, 0.0);
   EXPECT_TRUE(zero.status.ok());
   EXPECT_EQ(zero.Z, 1.0);
+  // Pressures so small that the density underflows (the smallest subnormal,
+  // 1e-300 Pa): the ideal-gas limit, finite, never 0/0. The gross methods
+  // share the solver.
+  const auto g1 = aga8_gross::prepare_method1(aga8_gross::Method1Input<double>{38.0, 0.6, 0.01, 0.0});
+  ASSERT_TRUE(g1.status.ok());
+  for (double p : {4.9e-324, 1e-300, 1e-90}) {
+    for (const auto& st : {sgerg88::z_factor(m, 300.0, p), aga8_gross::z_factor(g1, 290.0, p)}) {
+      EXPECT_TRUE(st.status.ok()) << p;
+      EXPECT_EQ(st.Z, 1.0) << p;
+      EXPECT_TRUE(std::isfinite(st.rho_mol_per_L) && st.rho_mol_per_L >= 0.0) << p;
+    }
+  }
 }
 
 // Characterization round trip: the characterized gas reproduces Hs and d

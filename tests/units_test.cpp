@@ -70,3 +70,19 @@ TEST(Units, VolumeAndEnergyText) {
   EXPECT_THROW((void)io::parse_volume_m3("3 gallons", "V"), InputError);
   EXPECT_THROW((void)io::parse_energy_J("3 calories", "E"), InputError);
 }
+
+// Values that overflow after unit conversion, or volumes no meter measures,
+// are refused where they enter, naming the field (never inf downstream).
+TEST(Units, OverflowingAndImpossibleValuesAreRefused) {
+  EXPECT_THROW((void)io::parse_pressure_Pa("1e308 MPa", "--p"), InputError);
+  EXPECT_THROW((void)io::parse_temperature_K("1e309 K", "--T"), InputError);
+  EXPECT_THROW((void)io::parse_volume_m3("1e308 Mcf", "--V"), InputError);
+  EXPECT_THROW((void)io::parse_volume_m3("2e15 m3", "--V"), InputError);
+  EXPECT_THROW((void)io::parse_energy_J("1e308 MMBtu", "E"), InputError);
+  EXPECT_DOUBLE_EQ(io::parse_volume_m3("1e15 m3", "--V"), 1e15);
+  try {
+    (void)io::parse_pressure_Pa("1e308 MPa", "--p");
+  } catch (const InputError& e) {
+    EXPECT_NE(std::string(e.what()).find("--p"), std::string::npos) << e.what();
+  }
+}

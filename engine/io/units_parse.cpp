@@ -1,6 +1,7 @@
 #include "io/units_parse.hpp"
 
 #include <array>
+#include <cmath>
 #include <utility>
 
 #include "core/units.hpp"
@@ -90,6 +91,7 @@ double parse_pressure_Pa(std::string_view text, std::string_view field, std::opt
   }
   if (!(p >= 0.0))
     throw InputError(std::string(field), std::string(text), "the absolute pressure must be >= 0 Pa");
+  if (!std::isfinite(p)) throw InputError(std::string(field), std::string(text), "a finite pressure (this one overflows in Pa)");
   return p;
 }
 
@@ -107,6 +109,7 @@ double parse_temperature_K(std::string_view text, std::string_view field) {
                      u.empty() ? "give a temperature with its unit: K, degC, degF or degR"
                                : "unknown temperature unit '" + nu.unit + "'; use K, degC, degF or degR");
   if (!(T > 0.0)) throw InputError(std::string(field), std::string(text), "the temperature must be above 0 K");
+  if (!std::isfinite(T)) throw InputError(std::string(field), std::string(text), "a finite temperature (this one overflows in K)");
   return T;
 }
 
@@ -132,7 +135,10 @@ double parse_volume_m3(std::string_view text, std::string_view field) {
   auto nu = split_unit(text, field);
   auto f = volume_unit_m3(without_spaces(nu.unit));
   if (!f) throw InputError(std::string(field), std::string(text), "give a volume with its unit: m3, L, ft3 or Mcf");
-  return nu.value * *f;
+  const double v = nu.value * *f;
+  if (!(std::fabs(v) <= max_volume_m3))
+    throw InputError(std::string(field), std::string(text), "a volume of at most 1e15 m3 in magnitude (a physically possible metered volume)");
+  return v;
 }
 
 double parse_energy_J(std::string_view text, std::string_view field) {
@@ -141,7 +147,9 @@ double parse_energy_J(std::string_view text, std::string_view field) {
   if (!f)
     throw InputError(std::string(field), std::string(text),
                      "give an energy with its unit: J, kJ, MJ, GJ, kWh, MWh, Btu, MMBtu, therm or Dth");
-  return nu.value * *f;
+  const double e = nu.value * *f;
+  if (!std::isfinite(e)) throw InputError(std::string(field), std::string(text), "a finite energy (this one overflows in J)");
+  return e;
 }
 
 }  // namespace zcorr::io

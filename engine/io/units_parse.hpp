@@ -27,6 +27,10 @@ struct NumberWithUnit {
 // Returns the thermodynamic temperature in K (> 0).
 [[nodiscard]] double parse_temperature_K(std::string_view text, std::string_view field);
 // Returns m^3 (>= 0 not enforced: volume increments may be signed corrections).
+// The largest metered volume accepted anywhere, in magnitude: 1e15 m3, some
+// 250 years of the world's gas production (about 4e12 m3 a year, common
+// practice), so that no conversion of it can overflow.
+inline constexpr double max_volume_m3 = 1e15;
 [[nodiscard]] double parse_volume_m3(std::string_view text, std::string_view field);
 // Returns J.
 [[nodiscard]] double parse_energy_J(std::string_view text, std::string_view field);

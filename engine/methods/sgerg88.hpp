@@ -257,6 +257,14 @@ template <class S>
     return s;
   }
   const S q = p_kPa / (R * T);
+  if (q < S(1e-100)) {
+    // The ideal-gas limit: B q and C q^2 are below 1e-90 relative, so Z = 1
+    // to every digit; solving would divide an underflowed density by itself.
+    s.Z = S(1);
+    s.rho_mol_per_L = q;
+    s.Z_virial2 = S(1);
+    return s;
+  }
   auto f = [&](const S& r) { return ((C * r + B) * r + S(1)) * r - q; };
   auto fp = [&](const S& r) { return (S(3) * C * r + S(2) * B) * r + S(1); };
   // First positive stationary point of f (a local maximum, as f'(0) = 1):
@@ -302,6 +310,10 @@ template <class S>
   s.rho_mol_per_L = r;
   s.Z = q / r;
   s.Z_virial2 = S(1) + B * r + C * r * r;
+  if (!num::isfinite_(s.Z) || !(s.Z > S(0)) || !num::isfinite_(s.rho_mol_per_L)) {  // never a non-finite result with ok
+    s.status.code = Code::no_convergence;
+    return s;
+  }
   if (!converged) {
     s.status.code = Code::no_convergence;
     s.status.flags |= flag::iteration_cap;
