@@ -9,13 +9,7 @@
 #include <fstream>
 #include <random>
 
-#ifndef ZCORR_ENGINE_VERSION
-#define ZCORR_ENGINE_VERSION "unknown"
-#endif
-
 namespace zcorr::record {
-
-const char* engine_version() noexcept { return "zcorr " ZCORR_ENGINE_VERSION; }
 
 namespace {
 

@@ -25,10 +25,9 @@
 #include "record/schema_migrations.hpp"
 #include "record/sql.hpp"
 #include "record/tables.hpp"
+#include "record/version.hpp"
 
 namespace zcorr::record {
-
-[[nodiscard]] const char* engine_version() noexcept;
 
 // Fixed-point resolutions of the registers (stated in every log_header).
 inline constexpr double volume_quantum_m3 = 1e-6;  // *_um3
