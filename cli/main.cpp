@@ -15,7 +15,8 @@ int main(int argc, char** argv) {
   // Contract: the first line is the version and the source revision.
   app.set_version_flag("--version",
                        std::string(zcorr::record::engine_version()) + "\ninterval log: schema version " +
-                           std::to_string(zcorr::record::latest_schema_version) + "\n\n" + zcorr::cli::caution_text,
+                           std::to_string(zcorr::record::latest_schema_version) + ", record encoding zcorr.record.v" +
+                           std::to_string(zcorr::record::latest_encoding) + "\n\n" + zcorr::cli::caution_text,
                        "Print the version and the source revision (first line) and exit");
   app.require_subcommand(1);
   int exit_code = 0;

@@ -89,11 +89,11 @@ Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions ev
     : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)) {
   using record::Stmt;
   {
+    const auto pc = log_.columns(record::Table::point_config);  // those of the log's schema version
     std::string sql = "SELECT ";
-    for (std::size_t i = 0; i < std::size(record::cols::point_config); ++i)
-      sql += (i ? ", " : "") + std::string(record::cols::point_config[i]);
+    for (std::size_t i = 0; i < pc.size(); ++i) sql += (i ? ", " : "") + std::string(pc[i]);
     Stmt s(log_.db(), sql + " FROM point_config ORDER BY seq");
-    std::vector<record::Value> v(std::size(record::cols::point_config));
+    std::vector<record::Value> v(pc.size());
     while (s.step()) {
       for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
       configs_[s.i64(0)] = record::config_from_values(v);

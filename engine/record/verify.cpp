@@ -20,10 +20,20 @@ struct Cursor {
 struct Row {
   Table table;
   std::int64_t seq;
-  std::vector<Value> values;
+  std::vector<Value> values;  // every column of the latest encoding (NULL where the log has no such column)
   Digest prev{}, hash{};
   bool prev_ok_len = false, hash_ok_len = false;
 };
+
+// The canonical encoding a record names (canon_version; NULL = 1), or 0 when
+// it names none this log can hold.
+int record_encoding(const Row& r, int log_encoding) {
+  const Value& v = r.values[canon_version_index(r.table)];
+  if (std::holds_alternative<Null>(v)) return 1;
+  if (v.index() != 1) return 0;
+  const auto k = std::get<std::int64_t>(v);
+  return k >= 1 && k <= log_encoding ? static_cast<int>(k) : 0;
+}
 
 bool read_digest(const Stmt& s, int c, Digest& d) {
   const auto* p = static_cast<const std::uint8_t*>(sqlite3_column_blob(s.raw(), c));
@@ -82,12 +92,14 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail)});
   };
 
+  // The columns this log has: those of the encodings of its schema version.
+  const int log_encoding = log.encoding();
   std::vector<Cursor> cursors;
   for (std::size_t t = 0; t < table_count; ++t) {
     const auto& info = tables[t];
     if (!has_table(out.schema_version, static_cast<Table>(t))) continue;  // an older log: no such table yet
     std::string sql = "SELECT ";
-    for (auto c : info.columns) sql += std::string(c) + ", ";
+    for (auto c : log.columns(static_cast<Table>(t))) sql += std::string(c) + ", ";
     sql += "prev_hash, hash FROM " + std::string(info.name) + " ORDER BY seq";
     Cursor c{static_cast<Table>(t), Stmt(db, sql)};
     c.has = c.stmt.step();
@@ -120,9 +132,10 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
 
   auto read_row = [&](Cursor& c) {
     Row r{c.table, c.seq, {}};
-    const auto n = table_info(c.table).columns.size();
-    r.values.reserve(n);
+    const auto n = log.columns(c.table).size();
+    r.values.reserve(table_info(c.table).columns.size());
     for (std::size_t i = 0; i < n; ++i) r.values.push_back(c.stmt.value(static_cast<int>(i)));
+    r.values.resize(table_info(c.table).columns.size());  // columns of later encodings: NULL
     r.prev_ok_len = read_digest(c.stmt, static_cast<int>(n), r.prev);
     r.hash_ok_len = read_digest(c.stmt, static_cast<int>(n) + 1, r.hash);
     c.has = c.stmt.step();
@@ -130,11 +143,26 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     return r;
   };
 
-  auto content_ok = [&](const Row& r) {
-    if (!r.hash_ok_len || !r.prev_ok_len) return false;
-    canonical_bytes(r.table, r.values, bytes);
-    return hasher.chain(r.prev, bytes) == r.hash;
+  // Why the record's hash does not stand for its contents ("" when it does):
+  // it is rebuilt in the encoding the record names, over the columns that
+  // encoding covers; a column it does not cover must be NULL (it did not
+  // exist when the record was hashed).
+  auto content_problem = [&](const Row& r) -> std::string {
+    if (!r.hash_ok_len || !r.prev_ok_len) return "its prev_hash or hash is not 32 bytes: the row was changed";
+    const int k = record_encoding(r, log_encoding);
+    if (k == 0)
+      return "it names a canonical encoding (canon_version) this log cannot hold (versions 1.." + std::to_string(log_encoding) +
+             "): the row was changed";
+    const std::size_t n = column_count(r.table, k);
+    for (std::size_t i = n; i < r.values.size(); ++i)
+      if (!std::holds_alternative<Null>(r.values[i]))
+        return "its column " + std::string(table_info(r.table).columns[i]) + " holds a value, but the encoding it names (version " +
+               std::to_string(k) + ") does not cover that column: the row was changed";
+    canonical_bytes(r.table, k, std::span<const Value>(r.values).first(n), bytes);
+    if (hasher.chain(r.prev, bytes) != r.hash) return "the stored hash does not match the record's contents: the row was changed";
+    return {};
   };
+  auto content_ok = [&](const Row& r) { return content_problem(r).empty(); };
 
   auto where = [](const Row& r) { return std::string(table_info(r.table).name) + " seq " + std::to_string(r.seq); };
 
@@ -292,7 +320,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       report(r, "removed", "records seq " + std::to_string(prev_seq + 1) + ".." + std::to_string(next - 1) +
                                " are missing between " + prev_where + " and " + where(r) + ": removed");
     } else if (!found_good) {
-      if (!content_ok(r)) report(r, "changed", "the stored hash does not match the record's contents: the row was changed");
+      if (auto why = content_problem(r); !why.empty()) report(r, "changed", why);
       else {
         // The record itself is intact but does not link: the one before it was
         // changed and re-hashed. Name that one.
