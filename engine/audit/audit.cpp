@@ -153,6 +153,11 @@ Contract load_contract(const std::string& path) {
   return parse_contract(s.str(), path);
 }
 
+bool written_by_another_engine(const AuditResult& r) {
+  const std::string running = record::describe_engine_version(record::engine_version());
+  return std::any_of(r.engine_versions.begin(), r.engine_versions.end(), [&](const auto& e) { return e.first != running; });
+}
+
 AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFactory methods) {
   using record::Stmt;
   AuditResult res;
@@ -516,6 +521,47 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     res.findings.push_back(a);
   }
 
+
+  // The engine versions that wrote the intervals; a calculation difference
+  // on intervals another version wrote may be the change of version itself.
+  {
+    const std::string running = record::describe_engine_version(record::engine_version());
+    Stmt s(db, "SELECT engine_version, count(*), min(seq) FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND "
+               "start_utc_s < ?3 GROUP BY engine_version ORDER BY 3");
+    if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
+    s.bind(2, opt.selection.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min()));
+    s.bind(3, opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));
+    while (s.step()) {
+      const std::string ver = record::describe_engine_version(s.text(0));
+      auto it = std::find_if(res.engine_versions.begin(), res.engine_versions.end(), [&](const auto& e) { return e.first == ver; });
+      if (it == res.engine_versions.end()) res.engine_versions.emplace_back(ver, s.i64(1));
+      else it->second += s.i64(1);
+    }
+    Stmt q(db, "SELECT seq, engine_version FROM interval WHERE point = ?1 AND start_utc_s >= ?2 AND end_utc_s <= ?3");
+    for (auto& f : res.findings) {
+      if (f.kind != Kind::calc_difference) continue;
+      std::vector<std::pair<std::string, std::int64_t>> other;
+      std::int64_t n = 0, n_other = 0;
+      q.bind(1, std::string_view(f.point)).bind(2, f.from_utc_s).bind(3, f.to_utc_s);
+      while (q.step()) {
+        if (corrected.count(q.i64(0))) continue;  // replaced: not part of the finding
+        ++n;
+        const std::string ver = record::describe_engine_version(q.text(1));
+        if (ver == running) continue;
+        ++n_other;
+        auto it = std::find_if(other.begin(), other.end(), [&](const auto& e) { return e.first == ver; });
+        if (it == other.end()) other.emplace_back(ver, 1);
+        else ++it->second;
+      }
+      q.reset();
+      if (other.empty()) continue;
+      std::string who;
+      for (const auto& [ver, c] : other) who += (who.empty() ? "" : ", ") + ver + (other.size() > 1 ? " (" + std::to_string(c) + ")" : "");
+      f.detail += "; " + (n_other == n ? std::string("the intervals were") : std::to_string(n_other) + " of its " + std::to_string(n) + " intervals were") +
+                  " written by " + who + ", not by this " + running +
+                  ": the difference may be due to the change of engine version or revision (e.g. a corrected coefficient)";
+    }
+  }
 
   std::stable_sort(res.findings.begin(), res.findings.end(), [](const AuditFinding& a, const AuditFinding& b) {
     if (a.point != b.point) return a.point < b.point;
