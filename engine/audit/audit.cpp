@@ -278,7 +278,19 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     opt.progress(0, progress_total);
   }
 
+  struct LoggedVersion {
+    std::string text;  // engine_version as logged
+    std::int64_t intervals = 0, first_seq = 0;
+  };
+  std::vector<LoggedVersion> logged_versions;  // the one of the interval before last
   rp.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
+    if (logged_versions.empty() || logged_versions.back().text != iv.engine_version) {
+      auto it = std::find_if(logged_versions.begin(), logged_versions.end(), [&](const auto& e) { return e.text == iv.engine_version; });
+      if (it == logged_versions.end()) logged_versions.push_back({iv.engine_version, 0, iv.seq});
+      else std::rotate(it, it + 1, logged_versions.end());
+    }
+    ++logged_versions.back().intervals;
+    logged_versions.back().first_seq = std::min(logged_versions.back().first_seq, iv.seq);
     const bool is_corrected = corrected.count(iv.seq) != 0;
     if (opt.observe) opt.observe(iv, r, !is_corrected);
     if (opt.progress && (++progress_done & 4095) == 0) opt.progress(progress_done, std::max(progress_total, progress_done));
@@ -526,27 +538,27 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   // on intervals another version wrote may be the change of version itself.
   {
     const std::string running = record::describe_engine_version(record::engine_version());
-    Stmt s(db, "SELECT engine_version, count(*), min(seq) FROM interval WHERE (?1 IS NULL OR point = ?1) AND end_utc_s > ?2 AND "
-               "start_utc_s < ?3 GROUP BY engine_version ORDER BY 3");
-    if (opt.selection.point) s.bind(1, std::string_view(*opt.selection.point));
-    s.bind(2, opt.selection.from_utc_s.value_or(std::numeric_limits<std::int64_t>::min()));
-    s.bind(3, opt.selection.to_utc_s.value_or(std::numeric_limits<std::int64_t>::max()));
-    while (s.step()) {
-      const std::string ver = record::describe_engine_version(s.text(0));
+    std::sort(logged_versions.begin(), logged_versions.end(), [](const auto& a, const auto& b) { return a.first_seq < b.first_seq; });
+    for (const auto& lv : logged_versions) {  // in the order they first appear in the log
+      const std::string ver = record::describe_engine_version(lv.text);
       auto it = std::find_if(res.engine_versions.begin(), res.engine_versions.end(), [&](const auto& e) { return e.first == ver; });
-      if (it == res.engine_versions.end()) res.engine_versions.emplace_back(ver, s.i64(1));
-      else it->second += s.i64(1);
+      if (it == res.engine_versions.end()) res.engine_versions.emplace_back(ver, lv.intervals);
+      else it->second += lv.intervals;
     }
     Stmt q(db, "SELECT seq, engine_version FROM interval WHERE point = ?1 AND start_utc_s >= ?2 AND end_utc_s <= ?3");
     for (auto& f : res.findings) {
       if (f.kind != Kind::calc_difference) continue;
       std::vector<std::pair<std::string, std::int64_t>> other;
       std::int64_t n = 0, n_other = 0;
+      std::string logged, ver;
       q.bind(1, std::string_view(f.point)).bind(2, f.from_utc_s).bind(3, f.to_utc_s);
       while (q.step()) {
         if (corrected.count(q.i64(0))) continue;  // replaced: not part of the finding
         ++n;
-        const std::string ver = record::describe_engine_version(q.text(1));
+        if (n == 1 || q.text(1) != logged) {
+          logged = q.text(1);
+          ver = record::describe_engine_version(logged);
+        }
         if (ver == running) continue;
         ++n_other;
         auto it = std::find_if(other.begin(), other.end(), [&](const auto& e) { return e.first == ver; });
@@ -556,7 +568,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
       q.reset();
       if (other.empty()) continue;
       std::string who;
-      for (const auto& [ver, c] : other) who += (who.empty() ? "" : ", ") + ver + (other.size() > 1 ? " (" + std::to_string(c) + ")" : "");
+      for (const auto& [name, c] : other) who += (who.empty() ? "" : ", ") + name + (other.size() > 1 ? " (" + std::to_string(c) + ")" : "");
       f.detail += "; " + (n_other == n ? std::string("the intervals were") : std::to_string(n_other) + " of its " + std::to_string(n) + " intervals were") +
                   " written by " + who + ", not by this " + running +
                   ": the difference may be due to the change of engine version or revision (e.g. a corrected coefficient)";

@@ -48,7 +48,7 @@ double opt(const record::Stmt& s, int c) { return s.is_null(c) ? nan_v : s.f64(c
 std::string logged_interval_columns() {
   return "seq, point, config_seq, analysis_seq, start_utc_s, end_utc_s, flow_time_s, alarm_time_s, samples, integration, "
          "p_avg_Pa, T_avg_K, V_ind_m3, V_f_m3, Z_f, Z_b, C, I_m3_Pa_per_K, V_b_m3, Hs_MJ_per_m3, E_MJ, V_f_um3, V_b_um3, "
-         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg";
+         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg, engine_version";
 }
 
 void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
@@ -83,6 +83,7 @@ void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
   iv.corrects_seq = s.is_null(28) ? 0 : s.i64(28);
   iv.rho_f = opt(s, 29);
   iv.mass_kg = opt(s, 30);
+  iv.engine_version = s.text(31);
 }
 
 Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if)

@@ -78,13 +78,20 @@ struct PointState {
 
 VerifyResult verify_log(const Log& log, std::size_t max_findings) {
   VerifyResult out;
-  out.schema_version = log.schema_version();
   sqlite3* db = log.db();
   exec(db, "BEGIN");  // one consistent snapshot while a writer may be appending
   struct EndTx {
     sqlite3* db;
     ~EndTx() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
   } end_tx{db};
+  // The schema version of the snapshot: a writer may have upgraded the log
+  // since it was opened, and its tables and columns are what is read.
+  out.schema_version = read_schema_version(db);
+  if (out.schema_version > latest_schema_version)
+    throw LogError(log.file().string() + ": the log was upgraded to schema version " + std::to_string(out.schema_version) +
+                   " while being read, newer than this zcorr understands (" + std::to_string(latest_schema_version) + ")");
+  const int log_encoding = encoding_of_schema(out.schema_version);
+  auto log_columns = [&](Table t) { return columns_of(t, log_encoding); };
 
   auto report = [&](const Row& r, std::string kind, std::string detail) {
     ++out.findings_total;
@@ -92,14 +99,12 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
       out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail)});
   };
 
-  // The columns this log has: those of the encodings of its schema version.
-  const int log_encoding = log.encoding();
   std::vector<Cursor> cursors;
   for (std::size_t t = 0; t < table_count; ++t) {
     const auto& info = tables[t];
     if (!has_table(out.schema_version, static_cast<Table>(t))) continue;  // an older log: no such table yet
     std::string sql = "SELECT ";
-    for (auto c : log.columns(static_cast<Table>(t))) sql += std::string(c) + ", ";
+    for (auto c : log_columns(static_cast<Table>(t))) sql += std::string(c) + ", ";  // those the log has
     sql += "prev_hash, hash FROM " + std::string(info.name) + " ORDER BY seq";
     Cursor c{static_cast<Table>(t), Stmt(db, sql)};
     c.has = c.stmt.step();
@@ -132,7 +137,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
 
   auto read_row = [&](Cursor& c) {
     Row r{c.table, c.seq, {}};
-    const auto n = log.columns(c.table).size();
+    const auto n = log_columns(c.table).size();
     r.values.reserve(table_info(c.table).columns.size());
     for (std::size_t i = 0; i < n; ++i) r.values.push_back(c.stmt.value(static_cast<int>(i)));
     r.values.resize(table_info(c.table).columns.size());  // columns of later encodings: NULL
