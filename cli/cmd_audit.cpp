@@ -157,7 +157,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
     j["log_id"] = r.log_id;
     j["records"] = r.records;
     j["head_hash"] = r.head_hash_hex;
-    j["engine_version"] = record::engine_version();
+    j["replayed_by"] = record::engine_version();
     j["written_by"] = nlohmann::json::array();
     for (const auto& [v, n] : r.engine_versions) j["written_by"].push_back({{"engine_version", v}, {"intervals", n}});
     j["written_by_another_engine"] = written_by_another_engine(r);

@@ -275,7 +275,16 @@ TEST(OldLog, AMixedLogVerifiesAndAuditsClean) {
   const auto st = record_next_hour(p);
   EXPECT_EQ(st.intervals, 60);
   EXPECT_EQ(st.configs, 0);  // the same configuration: resumed, not re-issued
-  expect_clean(verify(p));
+  {
+    Log log(p, {OpenMode::read_only});
+    const auto r = verify_log(log);
+    expect_clean(r.findings);
+    EXPECT_EQ(r.per_encoding.size(), 2u);
+    EXPECT_EQ(r.per_encoding.at(1), 131);
+    EXPECT_EQ(r.per_encoding.at(2), r.records - 131);
+    EXPECT_GE(r.records - 131, 61);  // 60 intervals, their hourly record, events
+    EXPECT_EQ(r.created_by, old_engine);
+  }
   // Records of both encodings, the old ones as they were.
   EXPECT_EQ(count(p, "SELECT count(*) FROM interval WHERE canon_version IS NULL AND engine_version = 'zcorr 0.1.0'"), 120);
   EXPECT_EQ(count(p, "SELECT count(*) FROM interval WHERE canon_version = 2 AND engine_version = '" + std::string(engine_version()) + "'"),

@@ -343,7 +343,11 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings) {
     prev_where = where(r);
     prev_table = r.table;
     prev_time = row_time(r);
-    if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
+    if (r.table == Table::log_header && r.seq == 1) {
+      out.log_id = as_text(r.values[1]);
+      out.created_by = describe_engine_version(as_text(r.values[col_index(cols::log_header, "engine_version")]));
+    }
+    out.per_encoding[record_encoding(r, log_encoding)]++;
   }
   {  // a record replaced by more than one correction is counted twice in any corrected total
     Stmt d(db, "SELECT corrects_seq, count(*), max(seq) FROM interval WHERE corrects_seq IS NOT NULL GROUP BY corrects_seq HAVING count(*) > 1 "

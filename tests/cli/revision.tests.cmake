@@ -14,7 +14,10 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   set_tests_properties(cli.revision_setup PROPERTIES FIXTURES_SETUP cli_revision_old)
 
   # Read as it is (schema 3): verifies, audits clean, and says who wrote it.
-  zcorr_cli_test(NAME revision_old_verify ARGS verify --db ${REV_DIR}/old.db MATCH "schema 3, .*result    clean")
+  zcorr_cli_test(NAME revision_old_verify ARGS verify --db ${REV_DIR}/old.db
+                 MATCH "schema 3, .*
+encoding  zcorr\.record\.v1 131; log created by zcorr 0\.1\.0 \(revision unknown\)
+.*result    clean")
   zcorr_cli_test(NAME revision_old_audit ARGS audit --db ${REV_DIR}/old.db
                  MATCH "\nwritten by zcorr 0\\.1\\.0 \\(revision unknown\\): 120 interval\\(s\\)\nreplayed   by zcorr [0-9.]+ \\(revision [^)]+\\), another engine version or revision than wrote the log.*nothing found")
   zcorr_cli_test(NAME revision_old_audit_json ARGS audit --db ${REV_DIR}/old.db --format json
@@ -31,7 +34,10 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
                  MATCH "intervals          60 ")
   set_tests_properties(cli.revision_record_onto_old PROPERTIES FIXTURES_REQUIRED "cli_revision_old;cli_revision_next"
                        DEPENDS cli.revision_old_still_schema_3)
-  zcorr_cli_test(NAME revision_mixed_verify ARGS verify --db ${REV_DIR}/old.db MATCH "schema [0-9]+, .*result    clean")
+  zcorr_cli_test(NAME revision_mixed_verify ARGS verify --db ${REV_DIR}/old.db
+                 MATCH "schema [0-9]+, .*
+encoding  zcorr\.record\.v1 131, zcorr\.record\.v2 [0-9]+; log created by zcorr 0\.1\.0 \(revision unknown\)
+.*result    clean")
   zcorr_cli_test(NAME revision_mixed_audit ARGS audit --db ${REV_DIR}/old.db
                  MATCH "\nwritten by zcorr 0\\.1\\.0 \\(revision unknown\\): 120 interval\\(s\\); zcorr [0-9.]+ \\(revision [^)]+\\): 60 interval\\(s\\)\nreplayed   by .*another engine version.*nothing found")
   set_tests_properties(cli.revision_mixed_verify cli.revision_mixed_audit PROPERTIES FIXTURES_REQUIRED cli_revision_old
