@@ -175,6 +175,10 @@ int run_audit_cmd(const AuditCliOptions& o) {
     j["records"] = r.records;
     j["snapshot_head_seq"] = r.head_seq;
     j["head_hash"] = r.head_hash_hex;
+    j["replayed_by"] = record::engine_version();
+    j["written_by"] = nlohmann::json::array();
+    for (const auto& [v, n] : r.engine_versions) j["written_by"].push_back({{"engine_version", v}, {"intervals", n}});
+    j["written_by_another_engine"] = written_by_another_engine(r);
     j["V_b_m3"] = record::decimal(r.V_b_um3, 6);
     j["E_MJ"] = record::decimal(r.E_J, 6);
     j["replay"] = {{"intervals", t.intervals},
@@ -268,7 +272,16 @@ int run_audit_cmd(const AuditCliOptions& o) {
                 << fixed(f.V_fault_m3, 6) << ',' << csv_field(f.difference_basis) << ',' << csv_field(f.detail) << '\n';
   } else {
     std::cout << "log        " << o.db << " (id " << r.log_id << "), " << r.records << " chained records up to seq " << r.head_seq
-              << " (the audit's snapshot), head " << r.head_hash_hex << '\n'
+              << " (the audit's snapshot), head " << r.head_hash_hex << '\n';
+    std::cout << "written by ";
+    if (r.engine_versions.empty()) std::cout << "-: no intervals in the selection";
+    for (std::size_t i = 0; i < r.engine_versions.size(); ++i)
+      std::cout << (i ? "; " : "") << r.engine_versions[i].first << ": " << r.engine_versions[i].second << " interval(s)";
+    std::cout << "\nreplayed   by " << record::engine_version()
+              << (written_by_another_engine(r)
+                      ? ", another engine version or revision than wrote the log: a difference may be due to the change"
+                      : "")
+              << '\n'
               << "intervals  " << t.intervals << " (" << t.replayed << " recomputed, " << t.not_replayed << " not)\n"
               << "base vol.  logged " << record::decimal(t.V_b_um3_logged, 6) << " m3, recomputed "
               << record::decimal(t.V_b_um3_replayed, 6) << " m3\n"

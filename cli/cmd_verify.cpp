@@ -40,6 +40,8 @@ int run_verify(const VerifyOptions& o) {
     j["head_seq"] = r.last_seq;
     j["head_hash"] = to_hex(r.head_hash);
     j["tables"] = r.per_table;
+    j["created_by"] = r.created_by;
+    for (const auto& [k, n] : r.per_encoding) j["encodings"][k ? "zcorr.record.v" + std::to_string(k) : std::string("unknown")] = n;
     for (const auto& [name, p] : r.points)
       j["points"][name] = {{"intervals", p.intervals}, {"V_f_m3", decimal(p.V_f_um3, 6)}, {"V_b_m3", decimal(p.V_b_um3, 6)},
                            {"V_fault_m3", decimal(p.V_fault_um3, 6)}, {"E_MJ", decimal(p.E_J, 6)}, {"mass_kg", decimal(p.mass_mg, 6)}};
@@ -58,6 +60,13 @@ int run_verify(const VerifyOptions& o) {
       first = false;
     }
     std::cout << ")\n"
+              << "encoding  ";
+    first = true;
+    for (const auto& [k, n] : r.per_encoding) {
+      std::cout << (first ? "" : ", ") << (k ? "zcorr.record.v" + std::to_string(k) : std::string("unknown")) << ' ' << n;
+      first = false;
+    }
+    std::cout << (r.created_by.empty() ? std::string() : "; log created by " + r.created_by) << '\n'
               << "head      seq " << r.last_seq << ", hash " << to_hex(r.head_hash) << '\n';
     for (const auto& [name, p] : r.points)
       std::cout << "point     " << name << ": " << p.intervals << " intervals, V_b " << decimal(p.V_b_um3, 6) << " m3, V_f "

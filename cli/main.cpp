@@ -3,6 +3,7 @@
 
 #include "commands.hpp"
 #include "common.hpp"
+#include "record/log.hpp"
 
 int main(int argc, char** argv) {
   CLI::App app{"zcorr: compressibility factors and base-volume corrections for natural-gas measurement"};
@@ -11,6 +12,12 @@ int main(int argc, char** argv) {
                          "  zcorr props --gas \"methane=0.95,ethane=0.03,nitrogen=0.02\" --combustion-ref 25 --metering-ref 0\n"
                          "  zcorr cases\n\n") +
              zcorr::cli::caution_text);
+  // Contract: the first line is the version and the source revision.
+  app.set_version_flag("--version",
+                       std::string(zcorr::record::engine_version()) + "\ninterval log: schema version " +
+                           std::to_string(zcorr::record::latest_schema_version) + ", record encoding zcorr.record.v" +
+                           std::to_string(zcorr::record::latest_encoding) + "\n\n" + zcorr::cli::caution_text,
+                       "Print the version and the source revision (first line) and exit");
   app.require_subcommand(1);
   int exit_code = 0;
   zcorr::cli::setup_z(app, exit_code);

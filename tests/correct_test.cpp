@@ -15,6 +15,7 @@
 #include "record/quantities.hpp"
 #include "record/tables.hpp"
 #include "record/verify.hpp"
+#include "support/old_logs.hpp"
 #include "support/record_fixture.hpp"
 
 namespace zcorr {
@@ -74,7 +75,7 @@ void forge_set(const std::filesystem::path& file, std::vector<std::int64_t> orig
   }
   std::vector<record::Value> set{record::Null{}, std::string("TEST-1"), std::int64_t{0}, t_from, t_to, std::string("forged"),
                                  record::Null{}, record::Null{}, 101560.0, record::Null{}, first, last, n, vb_r, e_r, vb, e,
-                                 std::string("0")};
+                                 std::string("0"), record::Null{}};
   log.append(record::Table::correction_set, set);
   log.commit();
 }
@@ -366,27 +367,39 @@ TEST_F(CorrectTest, AlteredSetsAreFound) {
 
 // A log written before correction sets existed (schema version 2) is read as
 // it is -- head, chain, audit -- and upgraded only when opened for writing.
+// The log is zcorr 0.1.0's own (support/old_logs.hpp), recorded with
+// GERG-2008, so the replay needs that method built in.
 TEST_F(CorrectTest, ALogOfSchemaVersionTwoIsReadAndThenUpgraded) {
-  ASSERT_EQ(testing::run_shell(file, "DROP TABLE correction_set; DROP INDEX interval_corrects; DROP TRIGGER schema_version_no_delete; "
-                                     "DELETE FROM schema_version WHERE version = 3"),
-            0);
+  if (!audit::built_in_methods()("gerg2008")) GTEST_SKIP() << "GERG-2008 is not built in";
+  file = testing::old_log_copy("schema2_correct", 2);
+  auto audit_built_in = [&] {
+    record::Log log(file, {record::OpenMode::read_only});
+    return audit::run_audit(log, {}, audit::built_in_methods());
+  };
   {
     record::Log log(file, {record::OpenMode::read_only});
     EXPECT_EQ(log.schema_version(), 2);
-    EXPECT_EQ(log.head_seq(), head_before);
+    EXPECT_EQ(log.head_seq(), testing::old_log_recording_head_seq);
     const auto v = record::verify_log(log);
     EXPECT_TRUE(v.findings.empty());
-    EXPECT_EQ(v.records, head_before);
+    EXPECT_EQ(v.records, testing::old_log_recording_head_seq);
   }
-  const auto r = audit();
+  const auto r = audit_built_in();
   expect_clean(r);
   EXPECT_TRUE(r.corrections.empty());
   auto req = request();
+  req.point = "TEST-CLI";
   req.change.base_p_Pa = 101560.0;
-  const auto out = audit::write_correction_set(file, req, test_methods());  // opens for writing: upgrades to 3
-  EXPECT_EQ(q("SELECT max(version) FROM schema_version"), 3);
-  EXPECT_EQ(out.set.intervals, 24 * 60);
-  expect_clean(audit());
+  const auto out = audit::write_correction_set(file, req, audit::built_in_methods());  // opens for writing: upgrades
+  EXPECT_EQ(q("SELECT max(version) FROM schema_version"), record::latest_schema_version);
+  EXPECT_EQ(out.set.intervals, 60);
+  expect_clean(audit_built_in());
+  EXPECT_TRUE(verify().findings.empty());
+  // The correcting configuration names the engine that wrote it; the recorded one (schema 2) does not.
+  EXPECT_EQ(q("SELECT count(*) FROM point_config WHERE engine_version = '" + std::string(record::engine_version()) +
+              "' AND corrects_seq IS NOT NULL AND canon_version = " + std::to_string(record::latest_encoding)),
+            1);
+  EXPECT_EQ(q("SELECT count(*) FROM point_config WHERE engine_version IS NULL AND canon_version IS NULL AND corrects_seq IS NULL"), 1);
 }
 
 // Correcting intervals that no set accounts for (here the set record was

@@ -236,7 +236,7 @@ TEST(RecordVerify, ReHashedChangeBreaksTheNextLink) {
     Log log(p, {OpenMode::writer});
     log.begin();
     std::vector<Value> e1{Null{}, std::string("P"), std::int64_t{1}, std::string("note"), std::string("info"), std::string("first"),
-                          Null{}, Null{}, Null{}, Null{}};
+                          Null{}, Null{}, Null{}, Null{}, Null{}};
     forged = log.append(Table::event, e1);
     auto e2 = e1;
     e2[5] = std::string("second");
@@ -251,9 +251,9 @@ TEST(RecordVerify, ReHashedChangeBreaksTheNextLink) {
     Digest prev{};
     std::memcpy(prev.data(), sqlite3_column_blob(s.raw(), 0), 32);
     std::vector<Value> e{forged, std::string("P"), std::int64_t{1}, std::string("note"), std::string("info"), std::string("FORGED"),
-                         Null{}, Null{}, Null{}, Null{}};
+                         Null{}, Null{}, Null{}, Null{}, std::int64_t{latest_encoding}};
     std::vector<std::uint8_t> bytes;
-    canonical_bytes(Table::event, e, bytes);
+    canonical_bytes(Table::event, latest_encoding, e, bytes);
     Hasher h;
     const auto d = h.chain(prev, bytes);
     ASSERT_EQ(zcorr::testing::run_shell(p, "DROP TRIGGER event_no_update; UPDATE event SET detail = 'FORGED', hash = X'" + to_hex(d) +
@@ -277,7 +277,7 @@ TEST(RecordVerify, TotalsThatDoNotAddUpAreFound) {
     std::vector<Value> q{Null{}, std::string("TEST-1"), std::string("hour"), t0 + 3600, t0 + 7200, std::string("2026-03-02"),
                          std::int64_t{2}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, Null{}, Null{}, Null{},
                          std::int64_t{5}, std::int64_t{5}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0},
-                         std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, Null{}, Null{}};
+                         std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, std::int64_t{0}, Null{}, Null{}, Null{}};
     log.append(Table::qtr, q);
     log.commit();
   }
@@ -289,11 +289,11 @@ TEST(RecordVerify, TotalsThatDoNotAddUpAreFound) {
 }
 
 TEST(RecordCanonical, EncodingIsStableAndDocumented) {
-  // The layout stated in canonical.hpp, byte for byte, for a small record.
+  // The layout stated in canonical.hpp, byte for byte, for a small record (version 1).
   std::vector<Value> v{std::int64_t{2}, std::string("P"), std::int64_t{-1}, std::string("k"), std::string("info"), std::string(""),
                        Null{}, Null{}, -0.0, 1.5};
   std::vector<std::uint8_t> b;
-  canonical_bytes(Table::event, v, b);
+  canonical_bytes(Table::event, 1, v, b);
   const std::string head("zcorr.record.v1\0\0\x05" "event\0\x0a", 25);
   ASSERT_GE(b.size(), head.size());
   EXPECT_EQ(std::string(b.begin(), b.begin() + static_cast<long>(head.size())), head);
@@ -316,12 +316,13 @@ TEST(RecordVerify, CorrectionsNameAnEarlierRecordOfTheirTable) {
     ASSERT_TRUE(s.step());
     std::vector<Value> v;
     for (std::size_t i = 0; i < std::size(cols::interval); ++i) v.push_back(s.value(static_cast<int>(i)));
-    v[std::size(cols::interval) - 2] = original;                                // corrects_seq
-    v[std::size(cols::interval) - 1] = std::string("meter factor entered late");  // correction_reason
+    const auto i_corr = column_index(cols::interval, "corrects_seq");
+    v[i_corr] = original;
+    v[column_index(cols::interval, "correction_reason")] = std::string("meter factor entered late");
     log.begin();
     log.append(Table::interval, v);
     auto bad = v;
-    bad[std::size(cols::interval) - 2] = std::int64_t{999999};
+    bad[i_corr] = std::int64_t{999999};
     log.append(Table::interval, bad);
     log.commit();
   }

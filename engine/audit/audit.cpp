@@ -183,6 +183,11 @@ Contract load_contract(const std::string& path) {
   return parse_contract(s.str(), path);
 }
 
+bool written_by_another_engine(const AuditResult& r) {
+  const std::string running = record::describe_engine_version(record::engine_version());
+  return std::any_of(r.engine_versions.begin(), r.engine_versions.end(), [&](const auto& e) { return e.first != running; });
+}
+
 AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFactory methods) {
   using record::Stmt;
   AuditResult res;
@@ -325,7 +330,19 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     opt.progress(0, progress_total);
   }
 
+  struct LoggedVersion {
+    std::string text;  // engine_version as logged
+    std::int64_t intervals = 0, first_seq = 0;
+  };
+  std::vector<LoggedVersion> logged_versions;  // the one of the interval before last
   rp.run(opt.selection, [&](const LoggedInterval& iv, const IntervalReplay& r) {
+    if (logged_versions.empty() || logged_versions.back().text != iv.engine_version) {
+      auto it = std::find_if(logged_versions.begin(), logged_versions.end(), [&](const auto& e) { return e.text == iv.engine_version; });
+      if (it == logged_versions.end()) logged_versions.push_back({iv.engine_version, 0, iv.seq});
+      else std::rotate(it, it + 1, logged_versions.end());
+    }
+    ++logged_versions.back().intervals;
+    logged_versions.back().first_seq = std::min(logged_versions.back().first_seq, iv.seq);
     const bool is_corrected = corrected.count(iv.seq) != 0;
     if (opt.observe) opt.observe(iv, r, !is_corrected);
     if (opt.progress && (++progress_done & 4095) == 0) opt.progress(progress_done, std::max(progress_total, progress_done));
@@ -714,6 +731,48 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     res.findings.push_back(a);
   }
 
+
+  // The engine versions that wrote the intervals; a calculation difference
+  // on intervals another version wrote may be the change of version itself.
+  {
+    const std::string running = record::describe_engine_version(record::engine_version());
+    std::sort(logged_versions.begin(), logged_versions.end(), [](const auto& a, const auto& b) { return a.first_seq < b.first_seq; });
+    for (const auto& lv : logged_versions) {  // in the order they first appear in the log
+      const std::string ver = record::describe_engine_version(lv.text);
+      auto it = std::find_if(res.engine_versions.begin(), res.engine_versions.end(), [&](const auto& e) { return e.first == ver; });
+      if (it == res.engine_versions.end()) res.engine_versions.emplace_back(ver, lv.intervals);
+      else it->second += lv.intervals;
+    }
+    Stmt q(db, "SELECT seq, engine_version FROM interval WHERE point = ?1 AND start_utc_s >= ?2 AND end_utc_s <= ?3 AND seq <= ?4");
+    q.bind(4, head);
+    for (auto& f : res.findings) {
+      if (f.kind != Kind::calc_difference) continue;
+      std::vector<std::pair<std::string, std::int64_t>> other;
+      std::int64_t n = 0, n_other = 0;
+      std::string logged, ver;
+      q.bind(1, std::string_view(f.point)).bind(2, f.from_utc_s).bind(3, f.to_utc_s);
+      while (q.step()) {
+        if (corrected.count(q.i64(0))) continue;  // replaced: not part of the finding
+        ++n;
+        if (n == 1 || q.text(1) != logged) {
+          logged = q.text(1);
+          ver = record::describe_engine_version(logged);
+        }
+        if (ver == running) continue;
+        ++n_other;
+        auto it = std::find_if(other.begin(), other.end(), [&](const auto& e) { return e.first == ver; });
+        if (it == other.end()) other.emplace_back(ver, 1);
+        else ++it->second;
+      }
+      q.reset();
+      if (other.empty()) continue;
+      std::string who;
+      for (const auto& [name, c] : other) who += (who.empty() ? "" : ", ") + name + (other.size() > 1 ? " (" + std::to_string(c) + ")" : "");
+      f.detail += "; " + (n_other == n ? std::string("the intervals were") : std::to_string(n_other) + " of its " + std::to_string(n) + " intervals were") +
+                  " written by " + who + ", not by this " + running +
+                  ": the difference may be due to the change of engine version or revision (e.g. a corrected coefficient)";
+    }
+  }
 
   std::stable_sort(res.findings.begin(), res.findings.end(), [](const AuditFinding& a, const AuditFinding& b) {
     if (a.point != b.point) return a.point < b.point;

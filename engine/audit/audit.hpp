@@ -178,7 +178,16 @@ struct AuditResult {
   std::string what_if_combustion;    // which combustion reference the what-if uses, in words
   std::vector<WhatIfStep> what_if_steps;
   ReplayTotals what_if;  // V_b_um3_logged / E_J_logged: as logged; *_replayed: with the what-if changes
+  // The engine versions that wrote the intervals of the selection, as
+  // record::describe_engine_version() states them ("zcorr 0.1.0 (revision
+  // unknown)" for a log written before revisions were recorded), each with
+  // its number of intervals, in the order they first appear in the log.
+  std::vector<std::pair<std::string, std::int64_t>> engine_versions;
 };
+
+// Whether an engine version other than this one (record::engine_version())
+// wrote some of the intervals: the replay then says so.
+[[nodiscard]] bool written_by_another_engine(const AuditResult& r);
 
 // Runs every check. Throws record::LogError when the log cannot be read.
 [[nodiscard]] AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFactory methods);

@@ -186,11 +186,12 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
           v[col(pc, "note")] = why;
           v[col(pc, "corrects_seq")] = iv.config_seq;
           v[col(pc, "correction_reason")] = why;
+          v[col(pc, "engine_version")] = std::string(record::engine_version());
           const std::int64_t seq = writer.append(Table::point_config, v);
           if (!out.first_seq) out.first_seq = seq;
           std::vector<Value> e{Null{}, req.point, c.i64(2), std::string("config_change"), std::string("info"),
                                "correcting configuration seq " + std::to_string(iv.config_seq) + " (" + set.change + "): " + req.reason,
-                               Null{}, seq, Null{}, Null{}};
+                               Null{}, seq, Null{}, Null{}, Null{}};
           last_seq = writer.append(Table::event, e);
           ++out.configs;
           it = new_config.emplace(iv.config_seq, seq).first;
@@ -255,7 +256,8 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
                          set.E_J_replaced,
                          set.V_b_um3_corrected,
                          set.E_J_corrected,
-                         std::string(record::engine_version())};
+                         std::string(record::engine_version()),
+                         Null{}};  // canon_version (set by append)
     set.seq = writer.append(Table::correction_set, v);
     s.reset();
     writer.commit();

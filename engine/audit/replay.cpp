@@ -59,7 +59,7 @@ double opt(const record::Stmt& s, int c) { return s.is_null(c) ? nan_v : s.f64(c
 std::string logged_interval_columns() {
   return "seq, point, config_seq, analysis_seq, start_utc_s, end_utc_s, flow_time_s, alarm_time_s, samples, integration, "
          "p_avg_Pa, T_avg_K, V_ind_m3, V_f_m3, Z_f, Z_b, C, I_m3_Pa_per_K, V_b_m3, Hs_MJ_per_m3, E_MJ, V_f_um3, V_b_um3, "
-         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg, Fp, Ft, Fz";
+         "V_fault_um3, E_J, flags, calc_status, method, corrects_seq, rho_f_kg_per_m3, mass_kg, Fp, Ft, Fz, engine_version";
 }
 
 void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
@@ -97,18 +97,19 @@ void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
   iv.Fp = opt(s, 31);
   iv.Ft = opt(s, 32);
   iv.Fz = opt(s, 33);
+  iv.engine_version = s.text(34);
 }
 
 Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if, std::int64_t head_seq)
     : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)), head_seq_(head_seq) {
   using record::Stmt;
   {
+    const auto pc = log_.columns(record::Table::point_config);  // those of the log's schema version
     std::string sql = "SELECT ";
-    for (std::size_t i = 0; i < std::size(record::cols::point_config); ++i)
-      sql += (i ? ", " : "") + std::string(record::cols::point_config[i]);
+    for (std::size_t i = 0; i < pc.size(); ++i) sql += (i ? ", " : "") + std::string(pc[i]);
     Stmt s(log_.db(), sql + " FROM point_config WHERE seq <= ?1 ORDER BY seq");
     s.bind(1, head_seq_);
-    std::vector<record::Value> v(std::size(record::cols::point_config));
+    std::vector<record::Value> v(pc.size());
     while (s.step()) {
       for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
       configs_[s.i64(0)] = record::config_from_values(v);

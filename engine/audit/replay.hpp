@@ -82,6 +82,7 @@ struct LoggedInterval {
   std::string calc_status, method;
   std::int64_t corrects_seq = 0;  // 0 = not a correction
   double rho_f = nan_v, mass_kg = nan_v;
+  std::string engine_version;  // as logged (record::describe_engine_version states it)
 };
 
 struct GasRecord {

@@ -752,6 +752,15 @@ int charts_section(std::ostream& o, const ReportCollector& c) {
   return chart_no;
 }
 
+// The engine versions that wrote the intervals, with their counts.
+std::string written_by_html(const AuditResult& r) {
+  if (r.engine_versions.empty()) return "no intervals in the selection";
+  std::string o;
+  for (const auto& [v, n] : r.engine_versions)
+    o += (o.empty() ? "" : "; ") + esc(v) + ": " + std::to_string(n) + " interval" + (n == 1 ? "" : "s");
+  return o;
+}
+
 }  // namespace
 
 void write_html_report(std::ostream& out, const AuditResult& r, const ReportCollector& charts, const ReportHeader& h) {
@@ -764,6 +773,12 @@ void write_html_report(std::ostream& out, const AuditResult& r, const ReportColl
        << "<dt>log id</dt><dd class=\"mono\">" << esc(r.log_id) << "</dd>"
        << "<dt>head hash</dt><dd class=\"mono\">" << esc(r.head_hash_hex) << "</dd>"
        << "<dt>chained records</dt><dd>" << r.records << "</dd>"
+       << "<dt>written by</dt><dd>" << written_by_html(r) << "</dd>"
+       << "<dt>replayed by</dt><dd>" << esc(record::engine_version())
+       << (written_by_another_engine(r) ? " <strong>(another engine version or revision than wrote the log: a difference may be "
+                                          "due to the change)</strong>"
+                                        : "")
+       << "</dd>"
        << "<dt>selection</dt><dd>" << esc(h.selection.empty() ? std::string("the whole log") : h.selection) << "</dd>"
        << "<dt>tolerance</dt><dd>calc_difference beyond " << ppm_text(h.tolerance_ppm) << " ppm; the recalculation bar is "
        << printf_num(recalculation_bar_ppm, 0) << " ppm</dd>"

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstring>
 #include <stdexcept>
+#include <string>
 
 namespace zcorr::record {
 namespace {
@@ -32,7 +33,15 @@ void put_name(std::vector<std::uint8_t>& out, std::string_view s) {
   put_bytes(out, s.data(), s.size());
 }
 
-constexpr std::string_view magic{"zcorr.record.v1\0", 16};
+// "zcorr.record.vK" 0x00 for every version K.
+const std::array<std::string, latest_encoding + 1>& magics() {
+  static const auto m = [] {
+    std::array<std::string, latest_encoding + 1> a;
+    for (int k = 1; k <= latest_encoding; ++k) a[static_cast<std::size_t>(k)] = "zcorr.record.v" + std::to_string(k) + std::string(1, '\0');
+    return a;
+  }();
+  return m;
+}
 
 }  // namespace
 
@@ -44,13 +53,15 @@ Value real(double v) noexcept {
 
 Value opt_real(bool present, double v) noexcept { return present ? real(v) : Value{Null{}}; }
 
-void canonical_bytes(Table table, std::span<const Value> values, std::vector<std::uint8_t>& out) {
+void canonical_bytes(Table table, int encoding, std::span<const Value> values, std::vector<std::uint8_t>& out) {
   const auto& info = table_info(table);
-  if (values.size() != info.columns.size()) throw std::logic_error("canonical encoding: wrong number of values");
+  if (encoding < 1 || encoding > latest_encoding) throw std::logic_error("canonical encoding: no version " + std::to_string(encoding));
+  if (values.size() != column_count(table, encoding)) throw std::logic_error("canonical encoding: wrong number of values");
+  const std::string& magic = magics()[static_cast<std::size_t>(encoding)];
   out.clear();
   put_bytes(out, magic.data(), magic.size());
   put_name(out, info.name);
-  put_u16(out, info.columns.size());
+  put_u16(out, values.size());
   for (std::size_t i = 0; i < values.size(); ++i) {
     put_name(out, info.columns[i]);
     const Value& v = values[i];

@@ -1,10 +1,12 @@
 // zcorr interval log: the canonical byte encoding of a record and its hash.
 //
-// Canonical bytes of a record (version 1, "zcorr.record.v1"):
-//   "zcorr.record.v1" 0x00
+// Canonical bytes of a record in the encoding of version K ("zcorr.record.vK";
+// the versions and the columns each covers are in tables.hpp):
+//   "zcorr.record.vK" 0x00        (K in decimal: "zcorr.record.v1", "zcorr.record.v2", ...)
 //   u16 length + table name (ASCII)
 //   u16 number of columns
-//   for every column of the table's list (tables.hpp), in that order:
+//   for every column of the table's list (tables.hpp) introduced at a version
+//   <= K, in that order:
 //     u16 length + column name (ASCII)
 //     one tag byte and the value:
 //       0x00 NULL
@@ -13,7 +15,8 @@
 //                     (-0.0 is stored as +0.0, NaN as NULL, before encoding)
 //       0x03 TEXT:    u32 length + UTF-8 bytes
 //       0x04 BLOB:    u32 length + bytes
-// All lengths big-endian. The record's hash is
+// All lengths big-endian. Version 1 is the encoding of the logs written before
+// schema 4, byte for byte. The record's hash is
 //   hash = SHA-256(prev_hash || canonical bytes)
 // with prev_hash the hash of the record before it in the chain (32 zero bytes
 // for the first record). The values are exactly those stored in the STRICT
@@ -46,9 +49,10 @@ inline constexpr Digest zero_digest{};
 // An optional REAL: NULL when absent or NaN.
 [[nodiscard]] Value opt_real(bool present, double v) noexcept;
 
-// Appends the canonical bytes of one record of `table` to `out` (cleared first).
-// values.size() must equal the table's column count.
-void canonical_bytes(Table table, std::span<const Value> values, std::vector<std::uint8_t>& out);
+// Writes the canonical bytes of one record of `table` in the encoding of
+// version `encoding` (1..latest_encoding) to `out` (cleared first).
+// values.size() must equal column_count(table, encoding).
+void canonical_bytes(Table table, int encoding, std::span<const Value> values, std::vector<std::uint8_t>& out);
 
 // SHA-256 (OpenSSL libcrypto). One object is reused for many records.
 class Hasher {

@@ -8,6 +8,7 @@
 #include "io/input_error.hpp"
 #include "io/text.hpp"
 #include "io/units_parse.hpp"
+#include "record/version.hpp"
 
 namespace zcorr::record {
 
@@ -193,7 +194,9 @@ std::vector<Value> config_values(const PointConfig& c, std::int64_t valid_from) 
           c.energy_unit,
           opt_text(c.note),
           Null{},
-          Null{}};
+          Null{},
+          std::string(engine_version()),
+          Null{}};  // canon_version (set by Log::append)
 }
 
 PointConfig config_from_values(const std::vector<Value>& v) {

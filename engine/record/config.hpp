@@ -69,9 +69,11 @@ struct PointConfig {
 [[nodiscard]] PointConfig parse_point_config(std::string_view text, std::string_view source);
 [[nodiscard]] PointConfig load_point_config(const std::string& path);
 
-// The record's values (cols::point_config order); seq left NULL.
+// The record's values (cols::point_config order), engine_version this
+// engine's; seq and canon_version left NULL (Log::append sets them).
 [[nodiscard]] std::vector<Value> config_values(const PointConfig& c, std::int64_t valid_from_utc_s);
-// From a point_config row read with the column list cols::point_config.
+// From a point_config row read with the column list cols::point_config, or
+// the prefix of it an older log has (Log::columns).
 [[nodiscard]] PointConfig config_from_values(const std::vector<Value>& v);
 
 }  // namespace zcorr::record

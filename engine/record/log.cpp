@@ -9,13 +9,10 @@
 #include <fstream>
 #include <random>
 
-#ifndef ZCORR_ENGINE_VERSION
-#define ZCORR_ENGINE_VERSION "unknown"
-#endif
-
 namespace zcorr::record {
 
-const char* engine_version() noexcept { return "zcorr " ZCORR_ENGINE_VERSION; }
+static_assert(encoding_schema[latest_encoding] <= latest_schema_version,
+              "the columns of the latest canonical encoding need their schema migration (schema/NNN_*.sql)");
 
 namespace {
 
@@ -117,8 +114,15 @@ Log::Log(const std::filesystem::path& file, const OpenOptions& opt) : file_(file
     read_head();
     if (writer && head_seq_ == 0) {
       begin();
-      std::vector<Value> v{Null{}, random_id(), now_utc_s(), std::string(engine_version()),
-                           std::string("zcorr.record.v1/sha256"), volume_quantum_m3, energy_quantum_J, mass_quantum_kg};
+      std::vector<Value> v{Null{},
+                           random_id(),
+                           now_utc_s(),
+                           std::string(engine_version()),
+                           "zcorr.record.v" + std::to_string(latest_encoding) + "/sha256",
+                           volume_quantum_m3,
+                           energy_quantum_J,
+                           mass_quantum_kg,
+                           Null{}};  // canon_version (set by append)
       append(Table::log_header, v);
       commit();
     }
@@ -210,7 +214,8 @@ std::int64_t Log::append(Table t, std::vector<Value>& values) {
   if (values.size() != info.columns.size()) throw std::logic_error("zcorr log: wrong number of values for " + std::string(info.name));
   const std::int64_t seq = head_seq_ + 1;
   values[0] = seq;
-  canonical_bytes(t, values, bytes_);
+  values[canon_version_index(t)] = std::int64_t{latest_encoding};
+  canonical_bytes(t, latest_encoding, values, bytes_);
   const Digest h = hasher_.chain(head_hash_, bytes_);
   auto& s = insert_[static_cast<std::size_t>(t)];
   int i = 1;

@@ -25,10 +25,9 @@
 #include "record/schema_migrations.hpp"
 #include "record/sql.hpp"
 #include "record/tables.hpp"
+#include "record/version.hpp"
 
 namespace zcorr::record {
-
-[[nodiscard]] const char* engine_version() noexcept;
 
 // Fixed-point resolutions of the registers (stated in every log_header).
 inline constexpr double volume_quantum_m3 = 1e-6;  // *_um3
@@ -60,6 +59,12 @@ class Log {
   [[nodiscard]] sqlite3* db() const noexcept { return db_; }
   [[nodiscard]] const std::filesystem::path& file() const noexcept { return file_; }
   [[nodiscard]] int schema_version() const noexcept { return version_; }
+  // The newest canonical encoding whose columns this log has: latest_encoding
+  // for a writer (it upgrades the log), older for an older log read as it is.
+  [[nodiscard]] int encoding() const noexcept { return encoding_of_schema(version_); }
+  // The columns of a table this log has (a prefix of table_info(t).columns):
+  // what a reader may SELECT. A column the log has not is NULL in every record.
+  [[nodiscard]] std::span<const std::string_view> columns(Table t) const noexcept { return columns_of(t, encoding()); }
   [[nodiscard]] std::int64_t head_seq() const noexcept { return head_seq_; }
   [[nodiscard]] const Digest& head_hash() const noexcept { return head_hash_; }
 
@@ -70,8 +75,10 @@ class Log {
   void rollback() noexcept;
   [[nodiscard]] bool in_transaction() const noexcept { return in_tx_; }
 
-  // Appends one record: sets values[0] (seq) to the next chain position,
-  // computes the hash and inserts. Returns the seq. Inside begin()/commit().
+  // Appends one record in the latest encoding: `values` holds every column of
+  // table_info(t).columns; sets values[0] (seq) to the next chain position and
+  // canon_version to latest_encoding, computes the hash and inserts. Returns
+  // the seq. Inside begin()/commit().
   std::int64_t append(Table t, std::vector<Value>& values);
 
  private:

@@ -30,13 +30,14 @@ Recorder::Recorder(Log& log, const PointConfig& cfg, LineMethod& method, const R
 void Recorder::load_state() {
   sqlite3* db = log_.db();
   {  // the configuration in force
+    const auto pc = log_.columns(Table::point_config);
     std::string sql = "SELECT ";
-    for (std::size_t i = 0; i < std::size(cols::point_config); ++i) sql += (i ? ", " : "") + std::string(cols::point_config[i]);
+    for (std::size_t i = 0; i < pc.size(); ++i) sql += (i ? ", " : "") + std::string(pc[i]);
     Stmt s(db, sql + " FROM point_config WHERE point = ? AND corrects_seq IS NULL ORDER BY seq DESC LIMIT 1");
     s.bind(1, std::string_view(cfg_.point));
     if (s.step()) {
       std::vector<Value> v;
-      for (std::size_t i = 0; i < std::size(cols::point_config); ++i) v.push_back(s.value(static_cast<int>(i)));
+      for (std::size_t i = 0; i < pc.size(); ++i) v.push_back(s.value(static_cast<int>(i)));
       const PointConfig logged = config_from_values(v);
       config_seq_ = s.i64(0);
       config_changes_ = cfg_.differences(logged);
@@ -152,7 +153,7 @@ void Recorder::event(std::int64_t t, std::string kind, std::string severity, std
                      std::int64_t ref_seq, double value, double limit) {
   pending_events_.push_back({Null{}, cfg_.point, t, std::move(kind), std::move(severity), std::move(detail),
                              line > 0 ? Value{line} : Value{Null{}}, ref_seq > 0 ? Value{ref_seq} : Value{Null{}}, real(value),
-                             real(limit)});
+                             real(limit), Null{}});
 }
 
 void Recorder::flush_pending_events() {
@@ -306,7 +307,7 @@ void Recorder::close_interval() {
     detail += " (method " + cfg_.method + ", base " + cfg_.base_name + " " + fmt(cfg_.base_T_K) + " K " + fmt(cfg_.base_p_Pa) +
               " Pa, meter factor " + fmt(cfg_.meter_factor) + ")";
     std::vector<Value> e{Null{}, cfg_.point, cur_start_, std::string("config_change"), std::string("info"), detail, Null{},
-                         config_seq_, Null{}, Null{}};
+                         config_seq_, Null{}, Null{}, Null{}};
     log_.append(Table::event, e);
     ++stats_.events;
     apply_config_ = false;
@@ -319,8 +320,9 @@ void Recorder::close_interval() {
     v.push_back(std::int64_t{a.normalised ? 1 : 0});
     v.push_back(real(a.Hs_MJ_per_m3));
     v.push_back(a.hs_ref.empty() ? Value{Null{}} : Value{a.hs_ref});
-    v.push_back(Null{});
-    v.push_back(Null{});
+    v.push_back(Null{});  // corrects_seq
+    v.push_back(Null{});  // correction_reason
+    v.push_back(Null{});  // canon_version (set by append)
     const auto seq = log_.append(Table::gas_analysis, v);
     ++stats_.analyses;
     gas_.seq = seq;
@@ -329,7 +331,7 @@ void Recorder::close_interval() {
     if (&a == &cur_analyses_.back() && !gas_.usable) detail += "; the method refuses it (" + gas_.status + "): conversion stopped";
     std::vector<Value> e{Null{}, cfg_.point, cur_start_, std::string("analysis_change"),
                          std::string(&a == &cur_analyses_.back() && !gas_.usable ? "alarm" : "info"), detail, Null{}, seq, Null{},
-                         Null{}};
+                         Null{}, Null{}};
     log_.append(Table::event, e);
     ++stats_.events;
   }
@@ -383,7 +385,8 @@ void Recorder::close_interval() {
                cfg_.method,
                std::string(engine_version()),
                Null{},
-               Null{}});
+               Null{},
+               Null{}});  // canon_version (set by append)
   log_.append(Table::interval, row_);
   ++stats_.intervals;
   const Registers reg{r.V_f_um3, r.V_b_um3, r.V_fault_um3, r.E_J, r.mass_mg};
@@ -467,7 +470,8 @@ void Recorder::write_period(bool hour, std::int64_t end) {
                        cum_.m,
                        p.flags,
                        Null{},
-                       Null{}};
+                       Null{},
+                       Null{}};  // canon_version (set by append)
   log_.append(Table::qtr, v);
   if (hour) {
     ++stats_.hours;

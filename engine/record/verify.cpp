@@ -21,10 +21,20 @@ struct Cursor {
 struct Row {
   Table table;
   std::int64_t seq;
-  std::vector<Value> values;
+  std::vector<Value> values;  // every column of the latest encoding (NULL where the log has no such column)
   Digest prev{}, hash{};
   bool prev_ok_len = false, hash_ok_len = false;
 };
+
+// The canonical encoding a record names (canon_version; NULL = 1), or 0 when
+// it names none this log can hold.
+int record_encoding(const Row& r, int log_encoding) {
+  const Value& v = r.values[canon_version_index(r.table)];
+  if (std::holds_alternative<Null>(v)) return 1;
+  if (v.index() != 1) return 0;
+  const auto k = std::get<std::int64_t>(v);
+  return k >= 1 && k <= log_encoding ? static_cast<int>(k) : 0;
+}
 
 bool read_digest(const Stmt& s, int c, Digest& d) {
   const auto* p = static_cast<const std::uint8_t*>(sqlite3_column_blob(s.raw(), c));
@@ -79,13 +89,20 @@ std::int64_t head_seq(const Log& log) {
 
 VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq) {
   VerifyResult out;
-  out.schema_version = log.schema_version();
   sqlite3* db = log.db();
   exec(db, "BEGIN");  // one consistent snapshot while a writer may be appending
   struct EndTx {
     sqlite3* db;
     ~EndTx() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
   } end_tx{db};
+  // The schema version of the snapshot: a writer may have upgraded the log
+  // since it was opened, and its tables and columns are what is read.
+  out.schema_version = read_schema_version(db);
+  if (out.schema_version > latest_schema_version)
+    throw LogError(log.file().string() + ": the log was upgraded to schema version " + std::to_string(out.schema_version) +
+                   " while being read, newer than this zcorr understands (" + std::to_string(latest_schema_version) + ")");
+  const int log_encoding = encoding_of_schema(out.schema_version);
+  auto log_columns = [&](Table t) { return columns_of(t, log_encoding); };
 
   auto report = [&](const Row& r, std::string kind, std::string detail, std::optional<std::int64_t> dV = std::nullopt,
                     std::optional<std::int64_t> dE = std::nullopt) {
@@ -99,7 +116,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     const auto& info = tables[t];
     if (!has_table(out.schema_version, static_cast<Table>(t))) continue;  // an older log: no such table yet
     std::string sql = "SELECT ";
-    for (auto c : info.columns) sql += std::string(c) + ", ";
+    for (auto c : log_columns(static_cast<Table>(t))) sql += std::string(c) + ", ";  // those the log has
     sql += "prev_hash, hash FROM " + std::string(info.name) + " WHERE seq <= ?1 ORDER BY seq";
     Cursor c{static_cast<Table>(t), Stmt(db, sql)};
     c.stmt.bind(1, head_seq);
@@ -133,9 +150,10 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
 
   auto read_row = [&](Cursor& c) {
     Row r{c.table, c.seq, {}};
-    const auto n = table_info(c.table).columns.size();
-    r.values.reserve(n);
+    const auto n = log_columns(c.table).size();
+    r.values.reserve(table_info(c.table).columns.size());
     for (std::size_t i = 0; i < n; ++i) r.values.push_back(c.stmt.value(static_cast<int>(i)));
+    r.values.resize(table_info(c.table).columns.size());  // columns of later encodings: NULL
     r.prev_ok_len = read_digest(c.stmt, static_cast<int>(n), r.prev);
     r.hash_ok_len = read_digest(c.stmt, static_cast<int>(n) + 1, r.hash);
     c.has = c.stmt.step();
@@ -143,11 +161,26 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     return r;
   };
 
-  auto content_ok = [&](const Row& r) {
-    if (!r.hash_ok_len || !r.prev_ok_len) return false;
-    canonical_bytes(r.table, r.values, bytes);
-    return hasher.chain(r.prev, bytes) == r.hash;
+  // Why the record's hash does not stand for its contents ("" when it does):
+  // it is rebuilt in the encoding the record names, over the columns that
+  // encoding covers; a column it does not cover must be NULL (it did not
+  // exist when the record was hashed).
+  auto content_problem = [&](const Row& r) -> std::string {
+    if (!r.hash_ok_len || !r.prev_ok_len) return "its prev_hash or hash is not 32 bytes: the row was changed";
+    const int k = record_encoding(r, log_encoding);
+    if (k == 0)
+      return "it names a canonical encoding (canon_version) this log cannot hold (versions 1.." + std::to_string(log_encoding) +
+             "): the row was changed";
+    const std::size_t n = column_count(r.table, k);
+    for (std::size_t i = n; i < r.values.size(); ++i)
+      if (!std::holds_alternative<Null>(r.values[i]))
+        return "its column " + std::string(table_info(r.table).columns[i]) + " holds a value, but the encoding it names (version " +
+               std::to_string(k) + ") does not cover that column: the row was changed";
+    canonical_bytes(r.table, k, std::span<const Value>(r.values).first(n), bytes);
+    if (hasher.chain(r.prev, bytes) != r.hash) return "the stored hash does not match the record's contents: the row was changed";
+    return {};
   };
+  auto content_ok = [&](const Row& r) { return content_problem(r).empty(); };
 
   auto where = [](const Row& r) { return std::string(table_info(r.table).name) + " seq " + std::to_string(r.seq); };
 
@@ -310,7 +343,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       report(r, "removed", "records seq " + std::to_string(prev_seq + 1) + ".." + std::to_string(next - 1) +
                                " are missing between " + prev_where + " and " + where(r) + ": removed");
     } else if (!found_good) {
-      if (!content_ok(r)) report(r, "changed", "the stored hash does not match the record's contents: the row was changed");
+      if (auto why = content_problem(r); !why.empty()) report(r, "changed", why);
       else {
         // The record itself is intact but does not link: the one before it was
         // changed and re-hashed. Name that one.
@@ -328,7 +361,11 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     prev_where = where(r);
     prev_table = r.table;
     prev_time = row_time(r);
-    if (r.table == Table::log_header && r.seq == 1) out.log_id = as_text(r.values[1]);
+    if (r.table == Table::log_header && r.seq == 1) {
+      out.log_id = as_text(r.values[1]);
+      out.created_by = describe_engine_version(as_text(r.values[col_index(cols::log_header, "engine_version")]));
+    }
+    out.per_encoding[record_encoding(r, log_encoding)]++;
   }
   {  // a record replaced by more than one correction is counted twice in any corrected total
     Stmt d(db, "SELECT corrects_seq, count(*), max(seq) FROM interval WHERE corrects_seq IS NOT NULL AND seq <= ?1 GROUP BY corrects_seq "

@@ -59,6 +59,8 @@ struct VerifyResult {
   std::int64_t last_seq = 0;
   Digest head_hash{};
   std::map<std::string, std::int64_t> per_table;
+  std::map<int, std::int64_t> per_encoding;  // records by the canonical encoding they name (the record kept at each seq)
+  std::string created_by;                    // the log header's engine_version (record::describe_engine_version)
   std::map<std::string, PointTotals> points;
   std::vector<Finding> findings;  // in chain order, at most max_findings
   std::int64_t findings_total = 0;

@@ -63,11 +63,13 @@ inline void resum_quantity_records(sqlite3* db) {
   exec_sql(db, "UPDATE qtr SET Hs_avg_MJ_per_m3 = CAST(E_J AS REAL) / V_b_um3 WHERE V_b_um3 > 0 AND Hs_avg_MJ_per_m3 IS NOT NULL");
 }
 
-// Recomputes prev_hash and hash of every chained record, in seq order.
+// Recomputes prev_hash and hash of every chained record, in seq order, each
+// in the canonical encoding it names (canon_version; NULL or absent = 1).
 inline void rehash_chain(sqlite3* db) {
   struct Rec {
     std::int64_t seq;
     record::Table table;
+    int encoding;
     std::vector<record::Value> values;
   };
   std::vector<Rec> recs;
@@ -78,12 +80,22 @@ inline void rehash_chain(sqlite3* db) {
       e.bind(1, info.name);
       if (!e.step() || e.i64(0) == 0) continue;
     }
+    bool versioned = false;  // a log of schema 4 or later: its records name their encoding
+    {
+      record::Stmt c(db, "SELECT count(*) FROM pragma_table_info(?) WHERE name = 'canon_version'");
+      c.bind(1, info.name);
+      versioned = c.step() && c.i64(0) > 0;
+    }
+    const auto cols = record::columns_of(static_cast<record::Table>(t), versioned ? record::latest_encoding : 1);
+    const std::size_t ci = record::canon_version_index(static_cast<record::Table>(t));
     std::string sql = "SELECT ";
-    for (std::size_t i = 0; i < info.columns.size(); ++i) sql += (i ? ", " : "") + std::string(info.columns[i]);
+    for (std::size_t i = 0; i < cols.size(); ++i) sql += (i ? ", " : "") + std::string(cols[i]);
     record::Stmt s(db, sql + " FROM " + std::string(info.name));
     while (s.step()) {
-      Rec r{s.i64(0), static_cast<record::Table>(t), {}};
-      for (std::size_t i = 0; i < info.columns.size(); ++i) r.values.push_back(s.value(static_cast<int>(i)));
+      Rec r{s.i64(0), static_cast<record::Table>(t), 1, {}};
+      if (versioned && ci < cols.size() && !s.is_null(static_cast<int>(ci))) r.encoding = static_cast<int>(s.i64(static_cast<int>(ci)));
+      const std::size_t n = record::column_count(r.table, r.encoding);
+      for (std::size_t i = 0; i < n; ++i) r.values.push_back(s.value(static_cast<int>(i)));
       recs.push_back(std::move(r));
     }
   }
@@ -92,7 +104,7 @@ inline void rehash_chain(sqlite3* db) {
   record::Digest prev = record::zero_digest;
   std::vector<std::uint8_t> bytes;
   for (const auto& r : recs) {
-    record::canonical_bytes(r.table, r.values, bytes);
+    record::canonical_bytes(r.table, r.encoding, r.values, bytes);
     const record::Digest d = h.chain(prev, bytes);
     record::Stmt u(db, "UPDATE " + std::string(record::table_info(r.table).name) + " SET prev_hash = ?, hash = ? WHERE seq = ?");
     u.bind_blob(1, prev.data(), 32);
