@@ -1,5 +1,7 @@
 #include "audit/replay.hpp"
 
+#include "record/checked.hpp"
+
 #include <algorithm>
 #include <cmath>
 
@@ -304,10 +306,9 @@ void add_to_totals(ReplayTotals& t, const LoggedInterval& iv, const IntervalRepl
     return;
   }
   ++t.replayed;
-  t.V_b_um3_logged += iv.V_b_um3;
-  t.V_b_um3_replayed += r.V_b_um3;
-  t.E_J_logged += iv.E_J;
-  t.E_J_replayed += r.E_J;
+  // Saturating sums (record/checked.hpp): a log of impossible registers never overflows the totals.
+  (void)(record::sat_add(t.V_b_um3_logged, iv.V_b_um3) | record::sat_add(t.V_b_um3_replayed, r.V_b_um3) |
+         record::sat_add(t.E_J_logged, iv.E_J) | record::sat_add(t.E_J_replayed, r.E_J));
   track_max(t.max_dZ_f_ppm, r.dZ_f_ppm);
   track_max(t.max_dZ_b_ppm, r.dZ_b_ppm);
   track_max(t.max_dC_ppm, r.dC_ppm);

@@ -49,6 +49,7 @@ std::vector<std::string> PointConfig::differences(const PointConfig& o) const {
   cmp("volume_unit", volume_unit == o.volume_unit);
   cmp("energy_unit", energy_unit == o.energy_unit);
   cmp("note", note == o.note);
+  cmp("max_flow", max_flow_m3_per_h == o.max_flow_m3_per_h);
   return d;
 }
 
@@ -65,6 +66,43 @@ E pick(std::string_view field, std::string_view v, std::initializer_list<std::pa
 }
 
 }  // namespace
+
+void check_base_conditions(double T_K, double p_Pa, std::string_view field_T, std::string_view field_p) {
+  if (!(std::isfinite(T_K) && T_K >= 200.0 && T_K <= 400.0))
+    throw io::InputError(std::string(field_T), io::format_sig(T_K, 8) + " K", "a base temperature between 200 K and 400 K");
+  if (!(std::isfinite(p_Pa) && p_Pa >= 10e3 && p_Pa <= 1e6))
+    throw io::InputError(std::string(field_p), io::format_sig(p_Pa, 8) + " Pa", "a base pressure between 10 kPa and 1 MPa, absolute");
+}
+
+void check_identifier(std::string_view s, std::string_view field) {
+  std::size_t i = 0;
+  while (i < s.size()) {
+    const auto c = static_cast<unsigned char>(s[i]);
+    std::size_t n = c < 0x80 ? 1 : (c >> 5) == 6 ? 2 : (c >> 4) == 14 ? 3 : (c >> 3) == 30 ? 4 : 0;
+    bool ok = n > 0 && i + n <= s.size() && !(c < 0x20 || c == 0x7f) && !(c == 0xc0 || c == 0xc1 || c > 0xf4);
+    std::uint32_t cp = n == 1 ? c : n == 2 ? (c & 0x1f) : n == 3 ? (c & 0x0f) : (c & 0x07);
+    for (std::size_t k = 1; ok && k < n; ++k) {
+      const auto d = static_cast<unsigned char>(s[i + k]);
+      ok = (d & 0xc0) == 0x80;
+      cp = (cp << 6) | (d & 0x3f);
+    }
+    if (ok && n > 1) ok = !(n == 3 && cp < 0x800) && !(n == 4 && (cp < 0x10000 || cp > 0x10ffff)) && !(cp >= 0xd800 && cp <= 0xdfff);
+    if (!ok) {
+      std::string shown;
+      for (unsigned char ch : s.substr(0, 64)) {
+        if (ch >= 0x20 && ch < 0x7f) shown += static_cast<char>(ch);
+        else {
+          static const char* hex = "0123456789abcdef";
+          shown += "\\x";
+          shown += hex[ch >> 4];
+          shown += hex[ch & 15];
+        }
+      }
+      throw io::InputError(std::string(field), shown, "valid UTF-8 text without control characters");
+    }
+    i += n;
+  }
+}
 
 PointConfig parse_point_config(std::string_view text, std::string_view source) {
   PointConfig c;
@@ -146,6 +184,8 @@ PointConfig parse_point_config(std::string_view text, std::string_view source) {
   }
   const std::string src(source);
   if (c.point.empty()) throw io::InputError(src, "point", "the configuration must name the point");
+  check_identifier(c.point, src + " point");
+  check_base_conditions(c.base_T_K, c.base_p_Pa, src + " base_T", src + " base_p");
   if (c.method.empty()) throw io::InputError(src, "method", "the configuration must name the method");
   if (have_base && (have_base_T || have_base_p)) throw io::InputError(src, "base", "give either base or base_T and base_p");
   if (have_base_T != have_base_p) throw io::InputError(src, "base_T/base_p", "give both base_T and base_p");
@@ -196,7 +236,8 @@ std::vector<Value> config_values(const PointConfig& c, std::int64_t valid_from) 
           Null{},
           Null{},
           std::string(engine_version()),
-          Null{}};  // canon_version (set by Log::append)
+          Null{},   // canon_version (set by Log::append)
+          real(c.max_flow_m3_per_h)};
 }
 
 PointConfig config_from_values(const std::vector<Value>& v) {
@@ -230,6 +271,8 @@ PointConfig config_from_values(const std::vector<Value>& v) {
   c.volume_unit = t(21);
   c.energy_unit = t(22);
   c.note = t(23);
+  // max_flow_m3_per_h (encoding 3): NULL in a configuration written before schema 5.
+  c.max_flow_m3_per_h = v.size() > 28 && v[28].index() == 2 ? std::get<double>(v[28]) : default_max_flow_m3_per_h;
   return c;
 }
 

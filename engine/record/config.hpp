@@ -20,9 +20,16 @@
 //   integration    = per_sample | average_then_correct (default per_sample)
 //   p_min, p_max   = valid line pressure range, absolute (required), e.g. "1 MPa", "8 MPa"
 //   T_min, T_max   = valid line temperature range (required), e.g. "-10 degC", "50 degC"
+//   max_flow       = the largest indicated flow rate the meter passes, m3/h after the meter factor
+//                    (default 1e6, above the largest gas meters in use; common practice);
+//                    a sample increment above max_flow * interval / 3600 is bad input, never a register
 //   volume_unit    = m3 | ft3 | Mcf for reports (default m3)
 //   energy_unit    = MJ | GJ | kWh | MWh | MMBtu | therm for reports (default MJ)
 //   note           = free text
+// Refused at load (exit 2, field named): base_T outside 200..400 K, base_p
+// outside 10 kPa..1 MPa (base conditions are near the atmosphere: every
+// preset is 0..20 degC and about 101 kPa; common practice), a point id that is
+// not valid UTF-8 or holds a control character, max_flow not in (0, 1e9] m3/h.
 #pragma once
 
 #include <cstdint>
@@ -39,6 +46,14 @@ enum class Integration { per_sample, average_then_correct };
 
 [[nodiscard]] std::string_view averaging_name(Averaging a) noexcept;
 [[nodiscard]] std::string_view integration_name(Integration i) noexcept;
+
+inline constexpr double default_max_flow_m3_per_h = 1e6;
+
+// Throws io::InputError naming `field` when base conditions are impossible
+// (non-finite, base_T outside 200..400 K, base_p outside 10 kPa..1 MPa).
+void check_base_conditions(double T_K, double p_Pa, std::string_view field_T, std::string_view field_p);
+// Throws io::InputError naming `field` when `s` is not valid UTF-8 or holds a control character.
+void check_identifier(std::string_view s, std::string_view field);
 
 struct PointConfig {
   std::string point;
@@ -60,6 +75,12 @@ struct PointConfig {
   std::string volume_unit = "m3";
   std::string energy_unit = "MJ";
   std::string note;
+  double max_flow_m3_per_h = default_max_flow_m3_per_h;
+
+  // The largest volume increment (m3, after the meter factor) one sample may bring.
+  [[nodiscard]] double max_volume_per_interval_m3() const noexcept {
+    return max_flow_m3_per_h * static_cast<double>(interval_s) / 3600.0;
+  }
 
   // Names of the settings that differ (empty: the same configuration).
   [[nodiscard]] std::vector<std::string> differences(const PointConfig& o) const;

@@ -1,4 +1,5 @@
 #include "record/interval_calc.hpp"
+#include "record/checked.hpp"
 
 #include <cmath>
 
@@ -8,7 +9,9 @@
 namespace zcorr::record {
 
 std::int64_t to_register(double value, double quantum) noexcept {
-  if (!std::isfinite(value)) return 0;
+  if (std::isnan(value)) return 0;
+  if (register_out_of_range(value, quantum))  // saturate, never an out-of-range conversion
+    return value > 0 ? static_cast<std::int64_t>(register_limit) : -static_cast<std::int64_t>(register_limit);
   return static_cast<std::int64_t>(std::llround(value / quantum));
 }
 
@@ -191,6 +194,9 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
   if (std::isfinite(r.Hs_MJ_per_m3)) r.E_MJ = r.V_b_m3 * r.Hs_MJ_per_m3;
   else r.flags |= iflag::energy_missing;
 
+  for (const auto& [v, q] : {std::pair{r.V_f_m3, volume_quantum_m3}, std::pair{r.V_b_m3, volume_quantum_m3},
+                             std::pair{r.V_fault_m3, volume_quantum_m3}, std::pair{r.E_MJ, 1e-6}, std::pair{r.mass_kg, mass_quantum_kg}})
+    if (!std::isnan(v) && register_out_of_range(v, q)) r.flags |= iflag::overflow | iflag::alarm;
   r.V_f_um3 = to_register(r.V_f_m3, volume_quantum_m3);
   r.V_b_um3 = to_register(r.V_b_m3, volume_quantum_m3);
   r.V_fault_um3 = to_register(r.V_fault_m3, volume_quantum_m3);

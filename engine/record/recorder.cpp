@@ -6,12 +6,24 @@
 #include "eval/conversion.hpp"
 #include "io/text.hpp"
 #include "methods/iso6976.hpp"
+#include "record/checked.hpp"
 #include "record/timeutil.hpp"
 
 namespace zcorr::record {
 namespace {
 
 std::string fmt(double v, int digits = 8) { return io::format_sig(v, digits); }
+
+// a += b register by register, saturating; true when any saturated.
+template <class R>
+bool add_registers(R& a, const R& b) noexcept {
+  bool o = sat_add(a.V_f, b.V_f);
+  o |= sat_add(a.V_b, b.V_b);
+  o |= sat_add(a.V_fault, b.V_fault);
+  o |= sat_add(a.E, b.E);
+  o |= sat_add(a.m, b.m);
+  return o;
+}
 
 std::string analysis_columns() {
   std::string s;
@@ -88,11 +100,7 @@ void Recorder::load_state() {
       per.n++;
       per.flow_s += s.i64(2);
       per.alarm_s += s.i64(3);
-      per.sum.V_f += s.i64(4);
-      per.sum.V_b += s.i64(5);
-      per.sum.V_fault += s.i64(6);
-      per.sum.E += s.i64(7);
-      per.sum.m += s.i64(8);
+      if (add_registers(per.sum, Registers{s.i64(4), s.i64(5), s.i64(6), s.i64(7), s.i64(8)})) per.flags |= iflag::overflow;
       per.flags |= s.i64(12);
       if (!s.is_null(9) && !s.is_null(10)) {
         const double w = s.f64(11);
@@ -225,6 +233,19 @@ void Recorder::add_sample(const RawSample& raw) {
               format_time_utc(cur_start_),
           raw.line);
   }
+  // A volume no meter of this point can pass in one interval is bad input: it enters no register.
+  const double dV_m3 = (cfg_.pulses ? static_cast<double>(raw.pulses) / cfg_.k_factor_per_m3 : raw.V_ind_m3) * cfg_.meter_factor;
+  if (!(dV_m3 <= cfg_.max_volume_per_interval_m3())) {
+    ++stats_.bad_rows;
+    cur_flags_ |= iflag::bad_input;
+    event(raw.t_utc_s, "bad_input", "warning",
+          "line " + std::to_string(raw.line) + ": volume increment " + fmt(dV_m3) + " m3 above max_flow " + fmt(cfg_.max_flow_m3_per_h) +
+              " m3/h x " + std::to_string(cfg_.interval_s) + " s = " + fmt(cfg_.max_volume_per_interval_m3()) + " m3; not counted",
+          raw.line, 0, dV_m3, cfg_.max_volume_per_interval_m3());
+    prev_t_ = raw.t_utc_s;
+    if (raw.t_utc_s == cur_end_) close_interval();
+    return;
+  }
   s.dt_s = raw.t_utc_s - std::max(prev_t_, cur_start_);
   prev_t_ = raw.t_utc_s;
 
@@ -344,6 +365,11 @@ void Recorder::close_interval() {
   if (calc_failed && !calc_bad_) event(cur_start_, "calc_failed", "alarm", "the method refused a state: " + r.calc_status);
   else if (!calc_failed && calc_bad_) event(cur_start_, "calc_ok", "info", "the method computes again");
   calc_bad_ = calc_failed;
+  const Registers reg{r.V_f_um3, r.V_b_um3, r.V_fault_um3, r.E_J, r.mass_mg};
+  if (add_registers(cum_, reg)) {  // the register readings saturate: flagged, never wrapped
+    r.flags |= iflag::overflow | iflag::alarm;
+    event(cur_start_, "register_overflow", "alarm", "a register reading reached the int64 limit and saturates");
+  }
   flush_pending_events();
 
   row_.assign({Null{},
@@ -389,8 +415,6 @@ void Recorder::close_interval() {
                Null{}});  // canon_version (set by append)
   log_.append(Table::interval, row_);
   ++stats_.intervals;
-  const Registers reg{r.V_f_um3, r.V_b_um3, r.V_fault_um3, r.E_J, r.mass_mg};
-  cum_.V_f += reg.V_f; cum_.V_b += reg.V_b; cum_.V_fault += reg.V_fault; cum_.E += reg.E; cum_.m += reg.m;
   add_to_periods(cur_start_, cur_end_, r.flow_time_s, r.alarm_time_s, reg, r.p_avg_Pa, r.T_avg_K, r.V_f_m3, r.flags);
   last_end_ = cur_end_;
   stats_.last_end_utc_s = last_end_;
@@ -416,8 +440,8 @@ void Recorder::add_to_periods(std::int64_t start, std::int64_t, std::int64_t flo
     per.n++;
     per.flow_s += flow_s;
     per.alarm_s += alarm_s;
-    per.sum.V_f += r.V_f; per.sum.V_b += r.V_b; per.sum.V_fault += r.V_fault; per.sum.E += r.E; per.sum.m += r.m;
     per.flags |= flags;
+    if (add_registers(per.sum, r)) per.flags |= iflag::overflow;
     if (std::isfinite(p) && std::isfinite(T)) {
       per.wp += V_f * p; per.wT += V_f * T; per.w += V_f;
       per.tp += p; per.tT += T; per.tw += 1;

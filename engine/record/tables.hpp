@@ -32,9 +32,9 @@ enum class Table : std::size_t { log_header, point_config, gas_analysis, interva
 inline constexpr std::size_t table_count = 7;
 
 // The canonical encoding new records are written with.
-inline constexpr int latest_encoding = 2;
+inline constexpr int latest_encoding = 3;
 // encoding_schema[k]: the schema migration that added the columns of encoding k.
-inline constexpr std::array<int, latest_encoding + 1> encoding_schema{0, 1, 4};
+inline constexpr std::array<int, latest_encoding + 1> encoding_schema{0, 1, 4, 5};
 
 struct Column {
   std::string_view name;
@@ -52,7 +52,8 @@ inline constexpr Column point_config[] = {
     {"interval_s", 1}, {"contract_hour", 1}, {"utc_offset_min", 1}, {"averaging", 1}, {"integration", 1}, {"p_min_Pa", 1},
     {"p_max_Pa", 1}, {"T_min_K", 1}, {"T_max_K", 1}, {"volume_unit", 1}, {"energy_unit", 1}, {"note", 1},
     {"corrects_seq", 1}, {"correction_reason", 1},
-    {"engine_version", 2}, {"canon_version", 2}};
+    {"engine_version", 2}, {"canon_version", 2},
+    {"max_flow_m3_per_h", 3}};
 inline constexpr Column gas_analysis[] = {
     {"seq", 1}, {"point", 1}, {"valid_from_utc_s", 1}, {"sampled_utc_s", 1}, {"source", 1}, {"x_methane", 1},
     {"x_nitrogen", 1}, {"x_carbon_dioxide", 1}, {"x_ethane", 1}, {"x_propane", 1}, {"x_n_butane", 1}, {"x_isobutane", 1},
@@ -209,6 +210,7 @@ inline constexpr std::int64_t bad_input = 1 << 8;        // an input row could n
 inline constexpr std::int64_t gap = 1 << 9;              // a sample covered more than one interval (data gap)
 inline constexpr std::int64_t extrapolated = 1 << 10;    // the method computed outside its range on request
 inline constexpr std::int64_t expanded_range = 1 << 11;  // a state in the method's expanded range only
+inline constexpr std::int64_t overflow = 1 << 12;        // a quantity beyond its register's range: the register saturated
 }  // namespace iflag
 
 }  // namespace zcorr::record

@@ -63,8 +63,10 @@ std::int64_t row_time(const Row& r) {
 struct Sums {
   std::int64_t n = 0, V_f = 0, V_b = 0, V_fault = 0, E = 0, m = 0;
   std::int64_t min_start = INT64_MAX, max_end = INT64_MIN;
+  bool overflow = false;
   void add(std::int64_t vf, std::int64_t vb, std::int64_t vx, std::int64_t e, std::int64_t mm, std::int64_t s, std::int64_t en) {
-    ++n; V_f += vf; V_b += vb; V_fault += vx; E += e; m += mm;
+    ++n;
+    overflow |= sat_add(V_f, vf) | sat_add(V_b, vb) | sat_add(V_fault, vx) | sat_add(E, e) | sat_add(m, mm);
     min_start = std::min(min_start, s);
     max_end = std::max(max_end, en);
   }
@@ -110,6 +112,23 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     if (out.findings.size() < max_findings)
       out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail), dV, dE});
   };
+
+  // The no-update / no-delete triggers of every table the log has: a missing one is a finding.
+  for (std::size_t t = 0; t < table_count; ++t) {
+    if (!has_table(out.schema_version, static_cast<Table>(t))) continue;
+    for (const char* what : {"_no_update", "_no_delete"}) {
+      const std::string name = std::string(tables[t].name) + what;
+      Stmt trig(db, "SELECT 1 FROM sqlite_schema WHERE type = 'trigger' AND name = ?");
+      trig.bind(1, std::string_view(name));
+      if (!trig.step()) {
+        ++out.findings_total;
+        if (out.findings.size() < max_findings)
+          out.findings.push_back({std::string(tables[t].name), 0, 0, "missing_trigger",
+                                  "the trigger " + name + " is missing: the table's records can be changed in place", std::nullopt,
+                                  std::nullopt});
+      }
+    }
+  }
 
   std::vector<Cursor> cursors;
   for (std::size_t t = 0; t < table_count; ++t) {
@@ -229,7 +248,18 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       const bool correction = !std::holds_alternative<Null>(r.values[i_corr]);
       const auto vf = as_i64(r.values[i_rvf]), vb = as_i64(r.values[i_rvb]), vx = as_i64(r.values[i_rvx]),
                  e = as_i64(r.values[i_re]), m = as_i64(r.values[i_rm]);
-      auto q = [](std::optional<double> v, double quantum) { return v ? std::llround(*v / quantum) : 0LL; };
+      auto q = [](std::optional<double> v, double quantum) { return v ? to_register(*v, quantum) : std::int64_t{0}; };
+      // Every stored value the totals sum: finite, not negative, inside a register's range.
+      for (const std::size_t k : {i_vf, i_vb, i_e, i_m}) {
+        const auto v = as_f64(r.values[k]);
+        if (v && !(std::isfinite(*v) && *v >= 0 && *v < 1e15 * 1e3))
+          report(r, "impossible_value", std::string(ic[k]) + " = " + io::format_sig(*v, 6) + ": not a finite, non-negative quantity a register holds");
+      }
+      for (const std::int64_t reg : {vf, vb, vx, e, m})
+        if (reg < 0 || static_cast<double>(reg) >= register_limit) {
+          report(r, "impossible_value", "a register (V_f_um3, V_b_um3, V_fault_um3, E_J, mass_mg) is negative or beyond the register range");
+          break;
+        }
       const std::int64_t dvb = q(as_f64(r.values[i_vb]), volume_quantum_m3) - vb, de = q(as_f64(r.values[i_e]), 1e-6) - e;
       if (q(as_f64(r.values[i_vf]), volume_quantum_m3) != vf)
         report(r, "register_mismatch", "V_f_um3 does not equal V_f_m3 at 1e-6 m3", dvb, de);
@@ -244,15 +274,13 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       if (correction) {  // not in the recorded running totals; counted for its correction set
         if (set_sums.n == 0) set_sums.first = r.seq;
         ++set_sums.n;
-        set_sums.V_b += vb;
-        set_sums.E += e;
+        (void)(sat_add(set_sums.V_b, vb) | sat_add(set_sums.E, e));
         if (set_sums.n == 1) set_point = as_text(r.values[i_point]);
         else if (as_text(r.values[i_point]) != set_point)
           report(r, "bad_correction", "a correction set's intervals are of more than one point");
         replaced_q.bind(1, as_i64(r.values[i_corr]));
         if (replaced_q.step()) {
-          set_sums.V_b_replaced += replaced_q.i64(0);
-          set_sums.E_replaced += replaced_q.i64(1);
+          (void)(sat_add(set_sums.V_b_replaced, replaced_q.i64(0)) | sat_add(set_sums.E_replaced, replaced_q.i64(1)));
           for (std::size_t k = 0; k < std::size(carried); ++k)
             if (replaced_q.value(static_cast<int>(2 + k)) != r.values[col_index(ic, carried[k])]) {
               report(r, "bad_correction", std::string(carried[k]) + " differs from the record it replaces (seq " +
@@ -266,7 +294,9 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       auto& p = points[as_text(r.values[i_point])];
       const auto s = as_i64(r.values[i_start]), en = as_i64(r.values[i_end]);
       p.cum.intervals++;
-      p.cum.V_f_um3 += vf; p.cum.V_b_um3 += vb; p.cum.V_fault_um3 += vx; p.cum.E_J += e; p.cum.mass_mg += m;
+      if (sat_add(p.cum.V_f_um3, vf) | sat_add(p.cum.V_b_um3, vb) | sat_add(p.cum.V_fault_um3, vx) | sat_add(p.cum.E_J, e) |
+          sat_add(p.cum.mass_mg, m))
+        report(r, "register_overflow", "the running sums of the point's intervals reach the int64 limit (saturated)");
       p.hour.add(vf, vb, vx, e, m, s, en);
       p.day.add(vf, vb, vx, e, m, s, en);
     } else if (r.table == Table::qtr) {
