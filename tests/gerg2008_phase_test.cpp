@@ -6,9 +6,15 @@
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
 
+#include <chrono>
 #include <cmath>
+#include <fstream>
+#include <map>
 #include <string>
 #include <vector>
+
+#include "io/csv.hpp"
+#include "io/text.hpp"
 
 #include "methods/gerg2008.hpp"
 #include "methods/gerg2008_phase.hpp"
@@ -139,15 +145,17 @@ Fractions<double> g05() {
   return x;
 }
 
+// The hydrocarbon (water-free) basis the phase test works on (ph::prepare_dry).
 template <class S>
 gerg2008::Prepared<S> prep(const Fractions<double>& x) {
   gerg2008::Prepared<S> p;
-  EXPECT_TRUE(gerg2008::prepare(convert_fractions<S>(x), p).ok());
+  EXPECT_TRUE(ph::prepare_dry(convert_fractions<S>(x), p).ok());
   return p;
 }
 
 // tm(w) = sum w_i (ln w_i + ln phi_i(w) - ln z_i - ln phi_i(z)) evaluated directly.
-double tpd_at(const Fractions<double>& z, const Fractions<double>& w, double T, double p) {
+double tpd_at(const Fractions<double>& z_in, const Fractions<double>& w, double T, double p) {
+  const auto z = prep<double>(z_in).x;
   ph::PhaseState<double> fz, fw;
   EXPECT_TRUE(ph::evaluate_phase(z, T, p, ph::Root::stable, fz, SolveOptions{}).ok());
   EXPECT_TRUE(ph::evaluate_phase(w, T, p, ph::Root::stable, fw, SolveOptions{}).ok());
@@ -169,5 +177,124 @@ TEST(Gerg2008Stability, SharedDataTwoPhaseStatesAreUnstable) {
     EXPECT_LT(s.tpd_min, 0.0);
     // the trial composition, evaluated on its own, has a negative tangent-plane distance
     EXPECT_LT(tpd_at(g05(), s.trial, 260.0, P), 0.0);
+  }
+}
+
+namespace {
+
+struct RefState {
+  std::string id;
+  double T_K, p_Pa;
+  Fractions<double> x{};
+};
+
+// tests/data/gerg2008/states.csv (shared data set gerg2008-reference; README there).
+std::vector<RefState> reference_states() {
+  std::ifstream in(std::string(ZCORR_SOURCE_DIR) + "/tests/data/gerg2008/states.csv");
+  EXPECT_TRUE(in.good());
+  io::CsvReader r(in);
+  std::vector<std::string> head, row;
+  r.next(head);
+  auto col = [&](const std::string& n) {
+    for (std::size_t i = 0; i < head.size(); ++i)
+      if (head[i] == n) return i;
+    ADD_FAILURE() << n;
+    return std::size_t{0};
+  };
+  std::vector<RefState> out;
+  while (r.next(row)) {
+    RefState s;
+    s.id = row[col("case_id")];
+    s.T_K = io::parse_number(row[col("T_K")], "T_K");
+    s.p_Pa = io::parse_number(row[col("P_kPa")], "P_kPa") * 1000.0;
+    for (std::size_t i = 0; i < max_components; ++i) s.x[i] = io::parse_number(row[col(std::string(component_name(i)))], "x");
+    out.push_back(s);
+  }
+  return out;
+}
+
+// The composition of a gas of the reference set by its id prefix (e.g. "G15").
+Fractions<double> reference_gas(const std::string& gas) {
+  for (const auto& s : reference_states())
+    if (s.id.rfind(gas + "_", 0) == 0) return s.x;
+  ADD_FAILURE() << gas;
+  return {};
+}
+
+struct TwoPhaseState {
+  const char* gas;
+  double T_K, p_Pa;
+};
+// tests/data/gerg2008/README.md, "Left out as two-phase (heavy-end dew points)".
+const std::vector<TwoPhaseState> shared_two_phase{
+    {"G05", 260.0, 2000e3}, {"G05", 260.0, 5000e3}, {"G15", 260.0, 2000e3}, {"G20", 260.0, 2000e3}, {"G20", 260.0, 5000e3}};
+
+}  // namespace
+
+// Every one of the 305 states of the reference set is single-phase (source: the data
+// set's README: kept only where teqp's tangent-plane test and CoolProp's flash agree).
+TEST(Gerg2008Stability, ReferenceStatesAreStableWithNonNegativeTpd) {
+  int n = 0;
+  for (const auto& s : reference_states()) {
+    const auto p = prep<double>(s.x);
+    const auto st = ph::stability(p, s.T_K, s.p_Pa);
+    EXPECT_TRUE(st.status.ok()) << s.id << " " << code_name(st.status.code);
+    EXPECT_FALSE(st.unstable) << s.id << " tpd " << st.tpd_min;
+    EXPECT_GE(st.tpd_min, -1e-10) << s.id;
+    ++n;
+  }
+  EXPECT_EQ(n, 305);
+}
+
+TEST(Gerg2008Stability, AllSharedTwoPhaseStatesAreUnstableAndFlash) {
+  for (const auto& t : shared_two_phase) {
+    const auto z = reference_gas(t.gas);
+    const auto p = prep<double>(z);
+    const auto st = ph::stability(p, t.T_K, t.p_Pa);
+    ASSERT_TRUE(st.status.ok()) << t.gas;
+    EXPECT_TRUE(st.unstable) << t.gas << " " << t.p_Pa;
+    EXPECT_LT(st.tpd_min, 0.0);
+    EXPECT_LT(tpd_at(z, st.trial, t.T_K, t.p_Pa), 0.0) << t.gas;
+    // the flash: exact material balance, equal fugacities, a vapour fraction in (0, 1)
+    const auto f = ph::flash(p, t.T_K, t.p_Pa, st);
+    ASSERT_TRUE(f.status.ok()) << t.gas << " " << code_name(f.status.code);
+    EXPECT_TRUE(f.two_phase);
+    EXPECT_GT(f.beta, 0.0);
+    EXPECT_LT(f.beta, 1.0);
+    EXPECT_LT(f.balance, 1e-15) << t.gas;
+    double sx = 0, sy = 0;
+    for (std::size_t i = 0; i < max_components; ++i) { sx += f.x[i]; sy += f.y[i]; }
+    EXPECT_NEAR(sx, 1.0, 1e-13);
+    EXPECT_NEAR(sy, 1.0, 1e-13);
+    ph::PhaseState<double> L, V;
+    ASSERT_TRUE(ph::evaluate_phase(f.x, t.T_K, t.p_Pa, ph::Root::stable, L, SolveOptions{}).ok());
+    ASSERT_TRUE(ph::evaluate_phase(f.y, t.T_K, t.p_Pa, ph::Root::stable, V, SolveOptions{}).ok());
+    for (std::size_t i = 0; i < max_components; ++i)
+      // equal fugacities to the flash tolerance (|delta ln K| < 1e-10, PhaseOptions::flash_tol)
+      if (p.x[i] > 0.0) EXPECT_NEAR(std::log(f.x[i]) + L.ln_phi[i], std::log(f.y[i]) + V.ln_phi[i], 1e-9) << component_name(i);
+    EXPECT_LT(f.Z_liquid, f.Z_vapour);
+    EXPECT_NEAR(f.Z_liquid, L.Z, 1e-12);
+    // the two phases are each stable (a second split would lower the Gibbs energy further)
+    EXPECT_FALSE(ph::stability(prep<double>(f.y), t.T_K, t.p_Pa).unstable) << t.gas;
+    std::printf("%s %.2f K %.0f kPa: tpd %.3e beta %.8f Z_V %.6f Z_L %.6f it %d/%d\n", t.gas, t.T_K, t.p_Pa / 1e3,
+                st.tpd_min, f.beta, f.Z_vapour, f.Z_liquid, st.iterations, f.iterations);
+  }
+}
+
+// The same test in double and in 50 digits: same verdict, TPD and trial phase agree.
+TEST(Gerg2008Stability, DoubleAgreesWith50Digits) {
+  const std::vector<std::pair<const char*, std::pair<double, double>>> states{
+      {"G05", {260.0, 2000e3}}, {"G20", {260.0, 5000e3}}, {"G05", {288.15, 5000e3}}, {"G10", {260.0, 8000e3}}};
+  for (const auto& [gas, tp] : states) {
+    const auto z = reference_gas(gas);
+    const auto sd = ph::stability(prep<double>(z), tp.first, tp.second);
+    const auto sm = ph::stability(prep<mp>(z), mp(tp.first), mp(tp.second));
+    ASSERT_TRUE(sd.status.ok());
+    ASSERT_TRUE(sm.status.ok());
+    EXPECT_EQ(sd.unstable, sm.unstable) << gas;
+    EXPECT_NEAR(sd.tpd_min, static_cast<double>(sm.tpd_min), 1e-9 * (1.0 + std::abs(sd.tpd_min))) << gas;
+    if (sd.unstable)
+      for (std::size_t i = 0; i < max_components; ++i)
+        EXPECT_NEAR(sd.trial[i], static_cast<double>(sm.trial[i]), 1e-8 * (1e-6 + sd.trial[i])) << gas << component_name(i);
   }
 }

@@ -87,7 +87,7 @@ struct PhaseOptions {
   double trivial_tol = 1e-4;     // max |ln(w_i/z_i)| below which a trial is the feed itself
   double tpd_negative = -1e-10;  // tm below this is negative (unstable)
   int max_flash = 400;           // flash iterations
-  double flash_tol = 1e-12;      // on max |delta ln K|
+  double flash_tol = 1e-10;      // on max |delta ln K| (ln phi carries ~1e-11 of rounding in double)
   int max_boundary = 80;         // iterations of a dew/saturation solve
 };
 
@@ -453,6 +453,29 @@ Status evaluate_phase(const Fractions<S>& w, const S& T_K, const S& p_Pa, Root r
   return st.status;
 }
 
+
+// The hydrocarbon basis of an analysis: water removed and the rest normalised. The
+// hydrocarbon dew point is a property of the water-free gas; the water dew point is a
+// separate gas-quality quantity (common practice) that this code does not assess (GERG-2008
+// is not made for aqueous phases). Returns the status of prepare(); invalid_composition
+// when nothing is left.
+template <class S>
+Status prepare_dry(const Fractions<S>& x, Prepared<S>& out) noexcept {
+  Status st = check_fractions(x);
+  if (!st.ok()) { out = Prepared<S>{}; out.status = st; return st; }
+  Fractions<S> d = x;
+  d[index(Component::water)] = S(0);
+  const S sum = fraction_sum(d);
+  if (!(sum > S(0))) {
+    out = Prepared<S>{};
+    out.status = make_status(Code::invalid_composition, static_cast<std::uint8_t>(index(Component::water)));
+    return out.status;
+  }
+  for (auto& v : d) v /= sum;
+  const Status s = prepare(d, out);
+  out.status.flags |= st.flags;
+  return out.status;
+}
 
 // ---------------------------------------------------------------------------
 // Wilson K-factors
