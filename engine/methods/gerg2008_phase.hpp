@@ -933,11 +933,20 @@ template <class S>
       for (std::size_t a = 0; a < feed.n_active; ++a) K[feed.active[a]] = num::exp_(lnK[feed.active[a]]);
       rachford_rice(feed, K, beta, 200);
       out.beta = beta;
-      S bal(0);
+      S bal(0), sx(0), sy(0);
       for (std::size_t a = 0; a < feed.n_active; ++a) {
         const std::size_t i = feed.active[a];
         out.x[i] = feed.x[i] / (S(1) + beta * (K[i] - S(1)));
         out.y[i] = K[i] * out.x[i];
+        sx += out.x[i];
+        sy += out.y[i];
+      }
+      // The sums differ from 1 by the Rachford-Rice residual (amplified near beta = 0 or 1);
+      // normalised, the balance error is that residual times the small phase's fraction.
+      for (std::size_t a = 0; a < feed.n_active; ++a) {
+        const std::size_t i = feed.active[a];
+        out.x[i] /= sx;
+        out.y[i] /= sy;
         const S e = num::abs_(S(feed.x[i] - beta * out.y[i] - (S(1) - beta) * out.x[i]));
         if (e > bal) bal = e;
       }
