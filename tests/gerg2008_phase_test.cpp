@@ -9,6 +9,7 @@
 #include <chrono>
 #include <cmath>
 #include <fstream>
+#include <limits>
 #include <map>
 #include <string>
 #include <vector>
@@ -297,4 +298,244 @@ TEST(Gerg2008Stability, DoubleAgreesWith50Digits) {
       for (std::size_t i = 0; i < max_components; ++i)
         EXPECT_NEAR(sd.trial[i], static_cast<double>(sm.trial[i]), 1e-8 * (1e-6 + sd.trial[i])) << gas << component_name(i);
   }
+}
+
+// --- pure-fluid saturation ----------------------------------------------------
+
+namespace {
+
+// Critical point of a pure fluid's GERG-2008 equation: (dp/drho)_T = 0 and (d2p/drho2)_T = 0,
+// by Newton in (T, delta) with central differences in 50 digits.
+struct Critical {
+  double T_K, p_Pa, rho_mol_per_m3;
+};
+Critical eos_critical_point(Component c) {
+  Fractions<mp> x{};
+  x[index(c)] = mp(1);
+  gerg2008::Prepared<mp> p;
+  EXPECT_TRUE(gerg2008::prepare(x, p).ok());
+  auto f1 = [&](const mp& T, const mp& d) {  // (dp/drho)_T / (R T)
+    const auto r = gerg2008::alphar(p, mp(p.Tr_K / T), d);
+    return 1 + 2 * r.d1 + r.d2;
+  };
+  const mp h("1e-12");
+  auto f2 = [&](const mp& T, const mp& d) { return (f1(T, d + h) - f1(T, d - h)) / (2 * h); };
+  mp T = p.Tr_K, d(1);
+  for (int it = 0; it < 50; ++it) {
+    const mp a = f1(T, d), b = f2(T, d);
+    const mp aT = (f1(T + h, d) - f1(T - h, d)) / (2 * h), ad = (f1(T, d + h) - f1(T, d - h)) / (2 * h);
+    const mp bT = (f2(T + h, d) - f2(T - h, d)) / (2 * h), bd = (f2(T, d + h) - f2(T, d - h)) / (2 * h);
+    const mp det = aT * bd - ad * bT;
+    const mp dT = (a * bd - ad * b) / det, dd = (aT * b - a * bT) / det;
+    T -= dT;
+    d -= dd;
+    if (abs(dT) < mp("1e-25") && abs(dd) < mp("1e-25")) break;
+  }
+  const mp rho = d * p.rhor_mol_per_m3;
+  return {static_cast<double>(T), static_cast<double>(gerg2008::pressure_Pa(p, T, rho)), static_cast<double>(rho)};
+}
+
+// Maxwell's equal-area rule: integral of p dv from v_L to v_V equals p_sat (v_V - v_L).
+// Integrated numerically along the isotherm: integral of p/rho^2 drho = integral of p/rho
+// d(ln rho), Gauss-Legendre with 5 points on 2000 panels in ln rho.
+double equal_area_deviation(const gerg2008::Prepared<double>& p, double T, const ph::Saturation<double>& s) {
+  static const double xg[5] = {-0.906179845938664, -0.538469310105683, 0.0, 0.538469310105683, 0.906179845938664};
+  static const double wg[5] = {0.236926885056189, 0.478628670499366, 0.568888888888889, 0.478628670499366, 0.236926885056189};
+  const double a = std::log(s.rho_vap_mol_per_m3), b = std::log(s.rho_liq_mol_per_m3);
+  const int panels = 2000;
+  double integral = 0.0;
+  for (int k = 0; k < panels; ++k) {
+    const double lo = a + (b - a) * k / panels, hi = a + (b - a) * (k + 1) / panels;
+    for (int g = 0; g < 5; ++g) {
+      const double rho = std::exp(0.5 * (lo + hi) + 0.5 * (hi - lo) * xg[g]);
+      integral += 0.5 * (hi - lo) * wg[g] * gerg2008::pressure_Pa(p, T, rho) / rho;
+    }
+  }
+  const double rect = s.p_Pa * (1.0 / s.rho_vap_mol_per_m3 - 1.0 / s.rho_liq_mol_per_m3);
+  return std::abs(integral / rect - 1.0);
+}
+
+}  // namespace
+
+// Published critical points: CO2 304.1282 K / 7.3773 MPa (Span & Wagner 1996, J. Phys. Chem.
+// Ref. Data 25, 1509); methane 190.564 K / 4.5992 MPa (Setzmann & Wagner 1991, J. Phys. Chem.
+// Ref. Data 20, 1061). The GERG-2008 pure-fluid equations are short forms fitted to those
+// reference equations. Their own critical point (found here by Newton on the two critical
+// conditions) comes close; measured: both within 1e-6 K in T and 1e-8 relative in p (the
+// GERG-2008 equations of methane and CO2 are of reference quality; Kunz & Wagner 2012, sec. 4).
+// Tolerances 1e-4 K and 1e-6 relative.
+TEST(Gerg2008Saturation, CriticalPointsOfThePureEquationsAreCloseToPublishedOnes) {
+  struct Pub { Component c; double Tc, pc; };
+  for (const auto& pub : {Pub{Component::carbon_dioxide, 304.1282, 7.3773e6}, Pub{Component::methane, 190.564, 4.5992e6}}) {
+    const auto cp = eos_critical_point(pub.c);
+    std::printf("%s: equation's critical point %.7f K %.8f MPa (published %.4f K %.4f MPa)\n",
+                std::string(component_name(index(pub.c))).c_str(), cp.T_K, cp.p_Pa / 1e6, pub.Tc, pub.pc / 1e6);
+    EXPECT_NEAR(cp.T_K, pub.Tc, 1e-4);
+    EXPECT_NEAR(cp.p_Pa / pub.pc, 1.0, 1e-6);
+    // The saturation line computed with the same code ends there: 0.5 K below it the two
+    // roots still coexist and p_sat lies below p_c, at 2 K above it there is no saturation.
+    const auto p = prep<double>(pure(pub.c));
+    const auto near = ph::saturation_pressure(p, cp.T_K - 0.5);
+    ASSERT_TRUE(near.status.ok());
+    EXPECT_LT(near.p_Pa, cp.p_Pa);
+    EXPECT_GT(near.p_Pa, 0.97 * cp.p_Pa);
+    EXPECT_FALSE(ph::saturation_pressure(p, cp.T_K + 2.0).status.ok());
+  }
+}
+
+// Equal fugacities (the solver's condition) imply Maxwell's equal-area rule; checked here by
+// quadrature of the isotherm, to 1e-8 relative, at every computed state from 0.55 Tc to Tc - 0.5 K.
+TEST(Gerg2008Saturation, MaxwellEqualAreaHoldsAtEveryComputedState) {
+  for (auto c : {Component::carbon_dioxide, Component::methane, Component::propane, Component::nitrogen,
+                 Component::n_butane}) {
+    const auto p = prep<double>(pure(c));
+    const double Tc = gerg2008::data::pure_fluids[index(c)].Tc_K;
+    double last_p = 0.0;
+    for (double T = 0.55 * Tc; T < Tc - 0.5; T += (Tc - 0.5 - 0.55 * Tc) / 12.0) {
+      const auto s = ph::saturation_pressure(p, T);
+      ASSERT_TRUE(s.status.ok()) << component_name(index(c)) << " " << T;
+      EXPECT_GT(s.p_Pa, last_p);
+      last_p = s.p_Pa;
+      EXPECT_LT(equal_area_deviation(p, T, s), 1e-8) << component_name(index(c)) << " " << T;
+      // the inverse: saturation temperature at that pressure
+      const auto t = ph::saturation_temperature(p, s.p_Pa);
+      ASSERT_TRUE(t.status.ok());
+      EXPECT_NEAR(t.T_K, T, 1e-8 * T);
+      // and the dew-point code gives the same for a pure fluid
+      const auto d = ph::dew_temperature(p, s.p_Pa);
+      EXPECT_EQ(d.outcome, ph::DewOutcome::found);
+      EXPECT_NEAR(d.T_K, T, 1e-8 * T);
+    }
+  }
+  // Saturation pressures from memory (NIST Chemistry WebBook, about 1 %): CO2 at 280 K
+  // 4.16 MPa, propane at 300 K 1.00 MPa.
+  EXPECT_NEAR(ph::saturation_pressure(prep<double>(pure(Component::carbon_dioxide)), 280.0).p_Pa / 4.16e6, 1.0, 0.01);
+  EXPECT_NEAR(ph::saturation_pressure(prep<double>(pure(Component::propane)), 300.0).p_Pa / 1.00e6, 1.0, 0.01);
+}
+
+// --- dew point, cricondentherm, cricondenbar -----------------------------------
+
+// The shared two-phase states lie below the dew temperature at their pressure, every
+// reference (single-phase) state above it or at a pressure with no dew point (sources: the
+// data set's README and states.csv).
+TEST(Gerg2008DewPoint, SeparatesTheSharedTwoPhaseAndSinglePhaseStates) {
+  for (const auto& t : shared_two_phase) {
+    const auto d = ph::dew_temperature(prep<double>(reference_gas(t.gas)), t.p_Pa);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found) << t.gas;
+    EXPECT_GT(d.T_K, t.T_K) << t.gas;
+  }
+  std::map<std::string, gerg2008::Prepared<double>> preps;
+  int above = 0, none = 0;
+  for (const auto& s : reference_states()) {
+    const std::string gas = s.id.substr(0, s.id.find("_T"));
+    if (!preps.count(gas)) preps[gas] = prep<double>(s.x);
+    const auto d = ph::dew_temperature(preps[gas], s.p_Pa);
+    if (d.outcome == ph::DewOutcome::found) {
+      EXPECT_LT(d.T_K, s.T_K) << s.id;
+      ++above;
+    } else {
+      EXPECT_EQ(d.outcome, ph::DewOutcome::none_at_pressure) << s.id;
+      ++none;
+    }
+  }
+  std::printf("reference states: %d above their dew temperature, %d at pressures without a dew point\n", above, none);
+}
+
+// Just below the dew line the state is two-phase with a vapour fraction above 0.9999 and
+// the test still finds it; just above, it is stable.
+TEST(Gerg2008DewPoint, StatesAHairBelowTheDewLineAreUnstable) {
+  for (const auto& gas : {"G05", "G15", "G20"}) {
+    const auto p = prep<double>(reference_gas(gas));
+    for (double P : {1e6, 3e6, 6e6}) {
+      const auto d = ph::dew_temperature(p, P);
+      ASSERT_EQ(d.outcome, ph::DewOutcome::found) << gas << " " << P;
+      const auto below = ph::stability(p, d.T_K - 0.01, P);
+      ASSERT_TRUE(below.status.ok());
+      EXPECT_TRUE(below.unstable) << gas << " " << P;
+      const auto f = ph::flash(p, d.T_K - 0.01, P, below);
+      ASSERT_TRUE(f.status.ok()) << gas << " " << P;
+      EXPECT_GT(f.beta, 0.9999) << gas << " " << P;
+      EXPECT_LT(f.beta, 1.0);
+      EXPECT_LT(f.balance, 1e-15);
+      const auto above = ph::stability(p, d.T_K + 0.01, P);
+      ASSERT_TRUE(above.status.ok());
+      EXPECT_FALSE(above.unstable) << gas << " " << P;
+      EXPECT_GE(above.tpd_min, 0.0);
+    }
+  }
+}
+
+TEST(Gerg2008DewPoint, CricondenthermAndCricondenbar) {
+  const auto p = prep<double>(reference_gas("G05"));
+  const auto e = ph::envelope_bounds(p);
+  ASSERT_TRUE(e.status.ok());
+  ASSERT_TRUE(e.found);
+  std::printf("G05: cricondentherm %.4f K at %.4f MPa, cricondenbar %.5f MPa at %.3f K\n", e.cricondentherm_T_K,
+              e.cricondentherm_p_Pa / 1e6, e.cricondenbar_p_Pa / 1e6, e.cricondenbar_T_K);
+  // the dew temperature is highest there
+  for (double f : {0.8, 0.95, 1.05, 1.2}) {
+    const auto d = ph::dew_temperature(p, e.cricondentherm_p_Pa * f);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found);
+    EXPECT_LE(d.T_K, e.cricondentherm_T_K + 1e-6);
+  }
+  // no dew point above the cricondenbar, one just below it
+  EXPECT_EQ(ph::dew_temperature(p, e.cricondenbar_p_Pa * 1.001).outcome, ph::DewOutcome::none_at_pressure);
+  EXPECT_EQ(ph::dew_temperature(p, e.cricondenbar_p_Pa * 0.999).outcome, ph::DewOutcome::found);
+  // every state hotter than the cricondentherm is stable
+  for (double P = 0.5e6; P < 12e6; P += 0.5e6) {
+    const auto s = ph::stability(p, e.cricondentherm_T_K + 0.05, P);
+    EXPECT_TRUE(s.status.ok());
+    EXPECT_FALSE(s.unstable) << P;
+  }
+}
+
+// At states called stable no composition has a negative tangent-plane distance (sampled).
+TEST(Gerg2008Stability, NoSampledCompositionHasNegativeTpdAtStableStates) {
+  const auto z = reference_gas("G05");
+  const auto p = prep<double>(z);
+  unsigned seed = 12345u;
+  auto rnd = [&] { seed = seed * 1103515245u + 12345u; return ((seed >> 8) & 0xFFFFu) / 65536.0 + 1e-6; };
+  for (const auto& tp : {std::pair{288.15, 5e6}, std::pair{275.0, 3e6}, std::pair{300.0, 8e6}}) {
+    const auto st = ph::stability(p, tp.first, tp.second);
+    ASSERT_TRUE(st.status.ok());
+    ASSERT_FALSE(st.unstable);
+    for (int k = 0; k < 60; ++k) {
+      Fractions<double> w{};
+      double sum = 0;
+      for (std::size_t i = 0; i < max_components; ++i)
+        if (p.x[i] > 0) { w[i] = p.x[i] * std::pow(rnd(), 6.0) * std::exp(8.0 * rnd()); sum += w[i]; }
+      for (auto& v : w) v /= sum;
+      EXPECT_GE(tpd_at(z, w, tp.first, tp.second), -1e-12);
+    }
+  }
+}
+
+// Bad input gives a clear status.
+TEST(Gerg2008PhaseStatus, BadInput) {
+  const auto p = prep<double>(reference_gas("G05"));
+  const double nan = std::numeric_limits<double>::quiet_NaN(), inf = std::numeric_limits<double>::infinity();
+  EXPECT_EQ(ph::stability(p, nan, 1e6).status.code, Code::invalid_temperature);
+  EXPECT_EQ(ph::stability(p, 280.0, inf).status.code, Code::invalid_pressure);
+  EXPECT_EQ(ph::stability(p, 280.0, -1.0).status.code, Code::invalid_pressure);
+  EXPECT_EQ(ph::dew_temperature(p, nan).status.code, Code::invalid_pressure);
+  // above the cricondenbar: no dew point, said so
+  const auto hi = ph::dew_temperature(p, 15e6);
+  EXPECT_TRUE(hi.status.ok());
+  EXPECT_EQ(hi.outcome, ph::DewOutcome::none_at_pressure);
+  // no hydrocarbon at all
+  Fractions<double> x{};
+  x[index(Component::nitrogen)] = 0.5;
+  x[index(Component::helium)] = 0.5;
+  const auto d = ph::dew_temperature(prep<double>(x), 1e6);
+  EXPECT_EQ(d.outcome, ph::DewOutcome::no_hydrocarbon);
+  EXPECT_FALSE(d.status.ok());
+  // a non-finite mole fraction is refused before anything is computed
+  Fractions<double> bad = reference_gas("G05");
+  bad[index(Component::ethane)] = nan;
+  gerg2008::Prepared<double> pb;
+  EXPECT_EQ(ph::prepare_dry(bad, pb).code, Code::invalid_composition);
+  EXPECT_EQ(ph::stability(pb, 280.0, 1e6).status.code, Code::invalid_composition);
+  EXPECT_EQ(ph::dew_temperature(pb, 1e6).status.code, Code::invalid_composition);
+  // only water: nothing left of the hydrocarbon basis
+  EXPECT_EQ(ph::prepare_dry(pure(Component::water), pb).code, Code::invalid_composition);
 }

@@ -75,7 +75,9 @@ inline constexpr std::array<double, max_components> wilson_omega{
 };
 
 // Hydrocarbons (methane .. n-decane): the components a hydrocarbon dew point is about.
-[[nodiscard]] constexpr bool is_hydrocarbon(std::size_t i) noexcept { return i <= index(Component::n_decane); }
+[[nodiscard]] constexpr bool is_hydrocarbon(std::size_t i) noexcept {
+  return i <= index(Component::n_decane) && i != index(Component::nitrogen) && i != index(Component::carbon_dioxide);
+}
 
 // Iteration limits and tolerances (data, as SolveOptions).
 struct PhaseOptions {
@@ -472,7 +474,7 @@ Status prepare_dry(const Fractions<S>& x, Prepared<S>& out) noexcept {
     return out.status;
   }
   for (auto& v : d) v /= sum;
-  const Status s = prepare(d, out);
+  (void)prepare(d, out);
   out.status.flags |= st.flags;
   return out.status;
 }
@@ -933,20 +935,20 @@ template <class S>
       for (std::size_t a = 0; a < feed.n_active; ++a) K[feed.active[a]] = num::exp_(lnK[feed.active[a]]);
       rachford_rice(feed, K, beta, 200);
       out.beta = beta;
-      S bal(0), sx(0), sy(0);
+      S bal(0), tx(0), ty(0);
       for (std::size_t a = 0; a < feed.n_active; ++a) {
         const std::size_t i = feed.active[a];
         out.x[i] = feed.x[i] / (S(1) + beta * (K[i] - S(1)));
         out.y[i] = K[i] * out.x[i];
-        sx += out.x[i];
-        sy += out.y[i];
+        tx += out.x[i];
+        ty += out.y[i];
       }
       // The sums differ from 1 by the Rachford-Rice residual (amplified near beta = 0 or 1);
       // normalised, the balance error is that residual times the small phase's fraction.
       for (std::size_t a = 0; a < feed.n_active; ++a) {
         const std::size_t i = feed.active[a];
-        out.x[i] /= sx;
-        out.y[i] /= sy;
+        out.x[i] /= tx;
+        out.y[i] /= ty;
         const S e = num::abs_(S(feed.x[i] - beta * out.y[i] - (S(1) - beta) * out.x[i]));
         if (e > bal) bal = e;
       }
@@ -979,6 +981,539 @@ template <class S>
   }
   out.status = make_status(Code::no_convergence);
   out.status.flags |= flag::iteration_cap;
+  return out;
+}
+
+
+// ---------------------------------------------------------------------------
+// pure-fluid saturation (equal fugacities of the two roots: Maxwell's rule)
+
+template <class S>
+struct Saturation {
+  S T_K{}, p_Pa{};
+  S rho_vap_mol_per_m3{}, rho_liq_mol_per_m3{};
+  Status status{};
+  int iterations = 0;
+};
+
+// Saturation pressure of a pure fluid (one active component) at T. Newton on
+// ln phi_V - ln phi_L = 0 with d/dp = (v_V - v_L)/(R T), kept inside a bracket.
+// no_gas_root when T is at or above the critical temperature of the equation (the two
+// roots do not both exist at any pressure).
+template <class S>
+[[nodiscard]] Saturation<S> saturation_pressure(const Prepared<S>& pure, const S& T_K, const PhaseOptions& opt = {}) noexcept {
+  Saturation<S> out;
+  out.T_K = T_K;
+  out.status = pure.status;
+  if (!pure.status.ok()) return out;
+  if (pure.n_active != 1) { out.status = make_status(Code::invalid_composition); return out; }
+  if (!num::isfinite_(T_K) || !(T_K > S(0))) { out.status = make_status(Code::invalid_temperature); return out; }
+  const std::size_t i = pure.active[0];
+  TauCache<S> c;
+  fill_temperature_cache(pure, T_K, c);
+  const S RT = R<S>() * T_K;
+  const S pc = pure_reducing_pressure_Pa<S>(i);
+  S p = pc * num::exp_(S(S(5.373) * (S(1) + S(wilson_omega[i])) * (S(1) - S(data::pure_fluids[i].Tc_K) / T_K)));
+  if (!(p > S(0)) || !(p < pc)) p = pc / S(2);
+  S lo(0), hi(0);  // lo: gas stable (or no liquid root); hi: liquid stable (or no gas root)
+  bool have_lo = false, have_hi = false;
+  for (int it = 0; it < opt.max_boundary * 2; ++it) {
+    out.iterations = it + 1;
+    const S P = p / (pure.rhor_mol_per_m3 * RT);
+    const auto rt = density_roots(pure, c, P, opt.solve);
+    S next;
+    if (rt.gas && rt.liquid) {
+      const auto rg = residual(pure, c, rt.delta_gas), rl = residual(pure, c, rt.delta_liq);
+      // ln f / p-independent parts: g/RT = ln delta + alpha_r + Z (+ terms equal for both roots)
+      const S dg = (num::log_(rt.delta_gas) + rg.a + rg.d1) - (num::log_(rt.delta_liq) + rl.a + rl.d1);
+      const S vV = S(1) / (rt.delta_gas * pure.rhor_mol_per_m3), vL = S(1) / (rt.delta_liq * pure.rhor_mol_per_m3);
+      if (dg < S(0)) { lo = p; have_lo = true; } else { hi = p; have_hi = true; }
+      if (num::abs_(dg) < S(1e-14) || (have_lo && have_hi && hi - lo <= S(1e-15) * hi)) {
+        out.p_Pa = p;
+        out.rho_vap_mol_per_m3 = S(1) / vV;
+        out.rho_liq_mol_per_m3 = S(1) / vL;
+        out.status = Status{};
+        return out;
+      }
+      next = p - dg * RT / (vV - vL);
+    } else if (rt.gas) {
+      lo = p; have_lo = true;  // no liquid root yet: pressure below the liquid spinodal
+      next = have_hi ? S((lo + hi) / S(2)) : S(p * S(1.5));
+    } else if (rt.liquid) {
+      hi = p; have_hi = true;  // no gas root: above the gas spinodal
+      next = have_lo ? S((lo + hi) / S(2)) : S(p / S(1.5));
+    } else {
+      out.status = make_status(Code::no_convergence);
+      return out;
+    }
+    if (have_lo && have_hi && !(next > lo && next < hi)) next = (lo + hi) / S(2);
+    if (have_lo && have_hi && (hi - lo) <= S(1e-9) * hi && !(rt.gas && rt.liquid)) {
+      out.status = make_status(Code::no_gas_root);  // the roots never coexist: supercritical
+      return out;
+    }
+    if (!(next > S(0)) || next > S(10) * pc) { out.status = make_status(Code::no_gas_root); return out; }
+    p = next;
+  }
+  out.status = make_status(Code::no_convergence);
+  out.status.flags |= flag::iteration_cap;
+  return out;
+}
+
+// Saturation temperature of a pure fluid at p: secant on ln p_sat against 1/T inside a
+// bracket [T_low, T_high] (T_high: no saturation state or p_sat > p).
+template <class S>
+[[nodiscard]] Saturation<S> saturation_temperature(const Prepared<S>& pure, const S& p_Pa, const PhaseOptions& opt = {}) noexcept {
+  Saturation<S> out;
+  out.p_Pa = p_Pa;
+  out.status = pure.status;
+  if (!pure.status.ok()) return out;
+  if (pure.n_active != 1) { out.status = make_status(Code::invalid_composition); return out; }
+  if (!num::isfinite_(p_Pa) || !(p_Pa > S(0))) { out.status = make_status(Code::invalid_pressure); return out; }
+  const std::size_t i = pure.active[0];
+  const S Tc(data::pure_fluids[i].Tc_K);
+  const S pc = pure_reducing_pressure_Pa<S>(i);
+  if (p_Pa >= pc) { out.status = make_status(Code::no_gas_root); return out; }
+  // Wilson-type estimate, then bracket
+  S T = Tc / (S(1) - num::log_(S(p_Pa / pc)) / (S(5.373) * (S(1) + S(wilson_omega[i]))));
+  S lo(extended_T_min_K), hi = Tc;
+  S T_prev(0), f_prev(0);
+  bool have_prev = false;
+  for (int it = 0; it < opt.max_boundary; ++it) {
+    out.iterations += 1;
+    if (!(T > lo && T < hi)) T = (lo + hi) / S(2);
+    const auto sat = saturation_pressure(pure, T, opt);
+    if (!sat.status.ok()) {
+      hi = T;  // at or above the equation's critical temperature
+      have_prev = false;
+      T = (lo + hi) / S(2);
+      continue;
+    }
+    const S f = num::log_(S(sat.p_Pa / p_Pa));
+    if (f < S(0)) lo = T; else hi = T;
+    if (num::abs_(f) < S(1e-13) || hi - lo < S(1e-13) * T) {
+      out = sat;
+      out.iterations = it + 1;
+      return out;
+    }
+    S next;
+    if (have_prev && f != f_prev) {
+      const S x0 = S(1) / T_prev, x1 = S(1) / T;
+      const S x2 = x1 - f * (x1 - x0) / (f - f_prev);
+      next = S(1) / x2;
+    } else {
+      next = f < S(0) ? S(T + S(1)) : S(T - S(1));
+    }
+    T_prev = T;
+    f_prev = f;
+    have_prev = true;
+    T = next;
+  }
+  out.status = make_status(Code::no_convergence);
+  out.status.flags |= flag::iteration_cap;
+  return out;
+}
+
+// ---------------------------------------------------------------------------
+// hydrocarbon dew point, cricondentherm and cricondenbar
+
+enum class DewOutcome : std::uint8_t {
+  found,             // T_K is the highest dew temperature at that pressure
+  none_at_pressure,  // no dew point at that pressure (above the cricondenbar, or no liquid forms)
+  no_hydrocarbon,    // the gas has no hydrocarbon component
+  failed,            // see status
+};
+
+[[nodiscard]] constexpr const char* dew_outcome_name(DewOutcome o) noexcept {
+  switch (o) {
+    case DewOutcome::found: return "found";
+    case DewOutcome::none_at_pressure: return "none_at_pressure";
+    case DewOutcome::no_hydrocarbon: return "no_hydrocarbon";
+    case DewOutcome::failed: return "failed";
+  }
+  return "unknown";
+}
+
+template <class S>
+struct DewPoint {
+  S T_K{};
+  S p_Pa{};
+  Fractions<S> liquid{};  // incipient liquid at the dew point
+  DewOutcome outcome = DewOutcome::failed;
+  Status status{};
+  int iterations = 0;     // trial-phase evaluations
+};
+
+// Search controls of the dew-point scan (data, bounded).
+struct DewOptions {
+  double scan_step_K = 3.0;     // isobar scan step, downwards from the start temperature
+  double start_margin_K = 30.0; // start above the Wilson dew-point estimate
+  double T_low_K = extended_T_min_K;
+  double T_high_K = extended_T_max_K;
+  double tol_K = 1e-7;
+  double trial_tol = 1e-8;      // on ln W of the trial phases in the search
+};
+
+namespace detail {
+
+template <class S>
+bool feed_terms(const Prepared<S>& feed, const S& T_K, const S& p_Pa, Fractions<S>& d, PhaseState<S>& work,
+                const SolveOptions& opt) noexcept {
+  if (!evaluate_phase(feed.x, T_K, p_Pa, Root::stable, work, opt).ok()) return false;
+  for (std::size_t a = 0; a < feed.n_active; ++a) {
+    const std::size_t i = feed.active[a];
+    d[i] = num::log_(feed.x[i]) + work.ln_phi[i];
+  }
+  return true;
+}
+
+// The liquid-like trial at (T, p) from W (when given) or from Wilson (then the heavy-end
+// trial when that ends at the feed). valid: a non-trivial stationary point, tpd its value.
+template <class S>
+struct LiquidTrial {
+  bool valid = false;
+  S tpd{};
+  bool denser = false;  // the trial phase is denser than the feed (a dew point, not a bubble point)
+  bool feed_liquid = false;  // the feed itself takes the liquid-branch root
+  Fractions<S> W{};  // unnormalised stationary point
+  Fractions<S> w{};
+  int iterations = 0;
+};
+
+template <class S>
+LiquidTrial<S> liquid_trial(const Prepared<S>& feed, const WilsonData<S>& wd, const S& T_K, const S& p_Pa,
+                            const Fractions<S>* warm, const PhaseOptions& opt, PhaseState<S>& work) noexcept {
+  LiquidTrial<S> out;
+  Fractions<S> d{};
+  if (!feed_terms(feed, T_K, p_Pa, d, work, opt.solve)) return out;
+  const S Z_feed = work.Z;
+  out.feed_liquid = work.liquid;
+  for (int kind = 0; kind < 3; ++kind) {
+    Fractions<S> W{};
+    if (kind == 0) {
+      if (warm == nullptr) continue;
+      W = *warm;
+    } else if (kind == 1) {
+      for (std::size_t a = 0; a < feed.n_active; ++a) {
+        const std::size_t i = feed.active[a];
+        S lk = wilson_lnK(wd, i, T_K, p_Pa);
+        if (lk > S(50)) lk = S(50);
+        if (lk < S(-50)) lk = S(-50);
+        W[i] = feed.x[i] * num::exp_(S(-lk));
+      }
+    } else {
+      std::size_t heavy = feed.active[0];
+      for (std::size_t a = 0; a < feed.n_active; ++a)
+        if (data::pure_fluids[feed.active[a]].Tc_K > data::pure_fluids[heavy].Tc_K) heavy = feed.active[a];
+      for (std::size_t a = 0; a < feed.n_active; ++a) W[feed.active[a]] = S(1e-3) * feed.x[feed.active[a]];
+      W[heavy] += S(0.999);
+    }
+    const auto tr = run_trial(feed, d, W, T_K, p_Pa, opt, work, false);
+    out.iterations += tr.iterations;
+    if (tr.trivial || !tr.converged) continue;
+    out.valid = true;
+    out.tpd = tr.tpd;
+    out.w = tr.w;
+    out.denser = work.Z < Z_feed;
+    for (std::size_t a = 0; a < feed.n_active; ++a) out.W[feed.active[a]] = tr.w[feed.active[a]] * tr.sum_W;
+    return out;
+  }
+  return out;
+}
+
+// Wilson dew-point estimate at p: sum z_i / K_i(T) = 1 (bisection in T).
+template <class S>
+S wilson_dew_T(const Prepared<S>& feed, const WilsonData<S>& wd, const S& p_Pa, const DewOptions& dopt) noexcept {
+  S lo(dopt.T_low_K), hi(dopt.T_high_K);
+  for (int it = 0; it < 60; ++it) {
+    const S T = (lo + hi) / S(2);
+    S sum(0);
+    for (std::size_t a = 0; a < feed.n_active; ++a) {
+      const std::size_t i = feed.active[a];
+      S lk = wilson_lnK(wd, i, T, p_Pa);
+      if (lk > S(50)) lk = S(50);
+      if (lk < S(-50)) lk = S(-50);
+      sum += feed.x[i] * num::exp_(S(-lk));
+    }
+    if (sum > S(1)) lo = T; else hi = T;  // sum z/K falls as T rises
+  }
+  return (lo + hi) / S(2);
+}
+
+}  // namespace detail
+
+[[nodiscard]] inline bool has_hydrocarbon_active(const std::array<std::uint8_t, max_components>& act, std::size_t n) noexcept {
+  for (std::size_t a = 0; a < n; ++a)
+    if (is_hydrocarbon(act[a])) return true;
+  return false;
+}
+
+// The highest dew temperature of the gas at p (the upper, hydrocarbon dew point of the
+// isobar): scan down from above the Wilson estimate (or from T_start_K when given) with the
+// liquid-like trial phase until its tangent-plane distance turns negative, with a
+// golden-section search of its minimum where the scan passes close (near the cricondenbar
+// the isobar's two-phase window is narrower than the step), then regula falsi on
+// tpd(T) = 0 between the last stable and the first unstable temperature.
+// Call with the prepared hydrocarbon basis (prepare_dry). A pure fluid (any of the 21)
+// gives its saturation temperature; a mixture without a hydrocarbon gives no_hydrocarbon.
+template <class S>
+[[nodiscard]] DewPoint<S> dew_temperature(const Prepared<S>& feed, const S& p_Pa, const PhaseOptions& opt_in = {},
+                                          const DewOptions& dopt = {}, const S* T_start_K = nullptr) noexcept {
+  // The tangent-plane distance at a stationary point is quadratic in the error of ln W, so
+  // the trial phases need not be converged as tightly as opt_in.tol for tpd to 1e-14.
+  PhaseOptions opt = opt_in;
+  if (opt.tol < dopt.trial_tol) opt.tol = dopt.trial_tol;
+  DewPoint<S> out;
+  out.p_Pa = p_Pa;
+  out.status = feed.status;
+  if (!feed.status.ok()) return out;
+  if (!num::isfinite_(p_Pa) || !(p_Pa > S(0))) { out.status = make_status(Code::invalid_pressure); return out; }
+  if (feed.n_active > 1 && !has_hydrocarbon_active(feed.active, feed.n_active)) {
+    out.outcome = DewOutcome::no_hydrocarbon;
+    out.status = make_status(Code::invalid_composition);
+    return out;
+  }
+  if (feed.n_active == 1) {
+    const auto sat = saturation_temperature(feed, p_Pa, opt);
+    out.iterations = sat.iterations;
+    if (sat.status.code == Code::no_gas_root) { out.outcome = DewOutcome::none_at_pressure; out.status = Status{}; return out; }
+    out.status = sat.status;
+    if (!sat.status.ok()) return out;
+    out.T_K = sat.T_K;
+    out.liquid = feed.x;
+    out.outcome = DewOutcome::found;
+    return out;
+  }
+  const auto wd = wilson_data(feed);
+  PhaseState<S> work;
+  S T_top = T_start_K != nullptr ? *T_start_K : S(detail::wilson_dew_T(feed, wd, p_Pa, dopt) + S(dopt.start_margin_K));
+  if (T_top > S(dopt.T_high_K)) T_top = S(dopt.T_high_K);
+  // the start must be stable
+  for (int k = 0; k < 30; ++k) {
+    const auto st = stability(feed, T_top, p_Pa, opt, true);
+    out.iterations += st.iterations;
+    if (st.status.ok() && !st.unstable) break;
+    if (T_top >= S(dopt.T_high_K)) { out.status = make_status(Code::out_of_range); return out; }
+    T_top += S(dopt.start_margin_K);
+    if (T_top > S(dopt.T_high_K)) T_top = S(dopt.T_high_K);
+  }
+  // scan down
+  const S h(dopt.scan_step_K);
+  Fractions<S> Wlast{};
+  bool have_W = false;
+  S T_hi = T_top, T_lo(0);
+  S tpd_hi(1), tpd_lo(0);
+  bool hi_valid = false, bracket = false;
+  S best_T(0), best_tpd(0);
+  bool have_best = false;
+  detail::LiquidTrial<S> lo_trial;
+  // March down: fixed steps until two stationary points give the slope of tpd(T), then
+  // secant predictions of the crossing (10 % beyond it), steps kept in [h/10, 3h].
+  const int n_steps = 4 * static_cast<int>((static_cast<double>(T_top) - dopt.T_low_K) / dopt.scan_step_K) + 4;
+  S T_prev = T_top, T = T_top, step = h;
+  bool have_slope_point = false;
+  S T_a(0), tpd_a(0);
+  for (int k = 0; k <= n_steps; ++k) {
+    if (k > 0) {
+      if (hi_valid && have_slope_point && tpd_hi > S(0) && T_a > T_prev && tpd_a > tpd_hi) {
+        const S slope = (tpd_a - tpd_hi) / (T_a - T_prev);
+        step = S(1.1) * tpd_hi / slope + S(0.01);
+        if (step < h / S(10)) step = h / S(10);
+        if (step > S(3) * h) step = S(3) * h;
+      } else {
+        step = hi_valid ? h : S(S(3) * h);  // no stationary point: far from the dew line
+      }
+      if (hi_valid) { T_a = T_prev; tpd_a = tpd_hi; have_slope_point = true; }
+      else have_slope_point = false;
+      T = T_prev - step;
+    }
+    if (T < S(dopt.T_low_K)) break;
+    const auto lt = detail::liquid_trial(feed, wd, T, p_Pa, have_W ? &Wlast : nullptr, opt, work);
+    out.iterations += lt.iterations;
+    // The feed has become a liquid: below here the isobar is past the dew line (a split
+    // found there is a bubble point or a liquid-liquid one, not a hydrocarbon dew point).
+    if (lt.feed_liquid) break;
+    if (lt.valid) {
+      Wlast = lt.W;
+      have_W = true;
+      if (lt.tpd < S(0) && !lt.denser) break;  // a bubble point: the isobar passes above the dew line
+      if (lt.tpd < S(0)) {
+        T_lo = T;
+        tpd_lo = lt.tpd;
+        lo_trial = lt;
+        T_hi = T_prev;
+        bracket = true;
+        break;
+      }
+      if (!have_best || lt.tpd < best_tpd) { best_T = T; best_tpd = lt.tpd; have_best = true; }
+      hi_valid = true;
+      tpd_hi = lt.tpd;
+    } else {
+      hi_valid = false;
+    }
+    T_prev = T;
+  }
+  if (!bracket && have_best) {
+    // golden-section search of the minimum of tpd(T) around the closest approach
+    const S gr = (num::sqrt_(S(5)) - S(1)) / S(2);
+    S a = best_T - S(3) * h, b = best_T + h;
+    Fractions<S> Wg = Wlast;
+    auto f = [&](const S& T, detail::LiquidTrial<S>& lt) {
+      lt = detail::liquid_trial(feed, wd, T, p_Pa, &Wg, opt, work);
+      out.iterations += lt.iterations;
+      if (lt.valid) Wg = lt.W;
+      return lt.valid ? lt.tpd : S(1e30);
+    };
+    detail::LiquidTrial<S> l1, l2;
+    S x1 = b - gr * (b - a), x2 = a + gr * (b - a);
+    S f1 = f(x1, l1), f2 = f(x2, l2);
+    for (int it = 0; it < 60 && b - a > S(1e-6); ++it) {
+      if ((f1 < S(0) && !l1.denser) || (f2 < S(0) && !l2.denser)) { f1 = f2 = S(1); break; }
+      if (f1 < S(0) || f2 < S(0)) break;
+      if (f1 < f2) { b = x2; x2 = x1; f2 = f1; l2 = l1; x1 = b - gr * (b - a); f1 = f(x1, l1); }
+      else { a = x1; x1 = x2; f1 = f2; l1 = l2; x2 = a + gr * (b - a); f2 = f(x2, l2); }
+    }
+    const bool use1 = f1 < S(0) && (!(f2 < S(0)) || x1 > x2);
+    const bool use2 = f2 < S(0) && !use1;
+    if (use1 || use2) {
+      // the upper crossing lies between the negative point and the start of the window
+      T_lo = use1 ? x1 : x2;
+      tpd_lo = use1 ? f1 : f2;
+      lo_trial = use1 ? l1 : l2;
+      T_hi = b;
+      hi_valid = false;
+      bracket = true;
+    }
+  }
+  if (!bracket) {
+    out.outcome = DewOutcome::none_at_pressure;
+    out.status = Status{};
+    return out;
+  }
+  // regula falsi (Illinois) on tpd(T) = 0, warm from the unstable side
+  Fractions<S> Wlo = lo_trial.W;
+  out.liquid = lo_trial.w;
+  bool side_lo = false, side_hi = false;
+  for (int it = 0; it < opt.max_boundary; ++it) {
+    if (T_hi - T_lo <= S(dopt.tol_K)) break;
+    S T;
+    if (hi_valid && tpd_hi > S(0)) {
+      T = T_lo + (T_hi - T_lo) * (S(0) - tpd_lo) / (tpd_hi - tpd_lo);
+      if (!(T > T_lo && T < T_hi)) T = (T_lo + T_hi) / S(2);
+    } else {
+      T = (T_lo + T_hi) / S(2);
+    }
+    const auto lt = detail::liquid_trial(feed, wd, T, p_Pa, &Wlo, opt, work);
+    out.iterations += lt.iterations;
+    if (lt.valid && lt.tpd < S(0)) {
+      T_lo = T;
+      tpd_lo = lt.tpd;
+      Wlo = lt.W;
+      out.liquid = lt.w;
+      if (side_lo && hi_valid) tpd_hi /= S(2);
+      side_lo = true;
+      side_hi = false;
+    } else {
+      T_hi = T;
+      hi_valid = lt.valid;
+      if (lt.valid) {
+        tpd_hi = lt.tpd;
+        if (side_hi) tpd_lo /= S(2);
+      }
+      side_hi = true;
+      side_lo = false;
+      if (lt.valid && lt.tpd == S(0)) { T_lo = T; break; }
+    }
+    if (lt.valid && num::abs_(lt.tpd) < S(1e-14)) { T_lo = T_hi = T; break; }
+  }
+  out.T_K = (T_lo + T_hi) / S(2);
+  out.outcome = DewOutcome::found;
+  out.status = Status{};
+  return out;
+}
+
+template <class S>
+struct EnvelopeBounds {
+  S cricondentherm_T_K{}, cricondentherm_p_Pa{};
+  S cricondenbar_T_K{}, cricondenbar_p_Pa{};
+  bool found = false;
+  Status status{};
+  int iterations = 0;
+};
+
+// The cricondentherm (highest dew temperature over all pressures) and the cricondenbar
+// (highest pressure with a dew point) of the gas, by dew points along a pressure grid,
+// bisection on p for the last pressure with a dew point, and a golden-section search of
+// the maximum dew temperature. Call with the prepared hydrocarbon basis (prepare_dry).
+template <class S>
+[[nodiscard]] EnvelopeBounds<S> envelope_bounds(const Prepared<S>& feed, const PhaseOptions& opt = {},
+                                                const DewOptions& dopt = {}) noexcept {
+  EnvelopeBounds<S> out;
+  out.status = feed.status;
+  if (!feed.status.ok()) return out;
+  if (feed.n_active < 2 || !has_hydrocarbon_active(feed.active, feed.n_active)) {
+    out.status = make_status(Code::invalid_composition);  // a mixture with a hydrocarbon is needed
+    return out;
+  }
+  // pressure grid, up the dew line
+  constexpr std::array<double, 16> grid{0.1e6, 0.5e6, 1e6, 2e6, 3e6, 4e6, 5e6, 6e6, 7e6, 8e6, 9e6, 10e6, 12e6, 15e6, 20e6, 30e6};
+  std::size_t last = grid.size();
+  S best_T(0);
+  std::size_t best = grid.size();
+  S hint(0);
+  bool have_hint = false;
+  std::size_t k = 0;
+  for (; k < grid.size(); ++k) {
+    S start = hint + S(10);
+    const auto dp = dew_temperature(feed, S(grid[k]), opt, dopt, have_hint ? &start : nullptr);
+    out.iterations += dp.iterations;
+    if (dp.outcome != DewOutcome::found) {
+      if (dp.outcome != DewOutcome::none_at_pressure) { out.status = dp.status; return out; }
+      break;
+    }
+    last = k;
+    hint = dp.T_K;
+    have_hint = true;
+    if (best == grid.size() || dp.T_K > best_T) { best_T = dp.T_K; best = k; }
+  }
+  if (last == grid.size()) { out.status = Status{}; return out; }  // no dew point on the grid
+  if (k == grid.size()) { out.status = make_status(Code::out_of_range); return out; }  // dew points beyond 30 MPa
+  // cricondenbar: bisection on p between grid[last] (dew point) and grid[k] (none)
+  S plo(grid[last]), phi(grid[k]);
+  S Tccb = hint;
+  for (int it = 0; it < 45 && phi - plo > S(1e-7) * phi; ++it) {
+    const S pm = (plo + phi) / S(2);
+    S start = Tccb + S(10);
+    const auto dp = dew_temperature(feed, pm, opt, dopt, &start);
+    out.iterations += dp.iterations;
+    if (dp.outcome == DewOutcome::found) { plo = pm; Tccb = dp.T_K; }
+    else if (dp.outcome == DewOutcome::none_at_pressure) phi = pm;
+    else { out.status = dp.status; return out; }
+  }
+  out.cricondenbar_p_Pa = plo;
+  out.cricondenbar_T_K = Tccb;
+  // cricondentherm: golden section of T_dew(p) on the grid interval around the best point
+  S a = best == 0 ? S(grid[0] / 2) : S(grid[best - 1]);
+  S b = best + 1 <= last ? S(grid[best + 1]) : plo;
+  const S gr = (num::sqrt_(S(5)) - S(1)) / S(2);
+  S T_hint = best_T;
+  auto Tdew = [&](const S& p) {
+    S start = T_hint + S(5);
+    const auto dp = dew_temperature(feed, p, opt, dopt, &start);
+    out.iterations += dp.iterations;
+    if (dp.outcome != DewOutcome::found) return S(0);
+    return dp.T_K;
+  };
+  S x1 = b - gr * (b - a), x2 = a + gr * (b - a);
+  S f1 = Tdew(x1), f2 = Tdew(x2);
+  for (int it = 0; it < 40 && b - a > S(1e-6) * b; ++it) {
+    if (f1 > f2) { b = x2; x2 = x1; f2 = f1; x1 = b - gr * (b - a); f1 = Tdew(x1); }
+    else { a = x1; x1 = x2; f1 = f2; x2 = a + gr * (b - a); f2 = Tdew(x2); }
+  }
+  if (f1 > f2) { out.cricondentherm_T_K = f1; out.cricondentherm_p_Pa = x1; }
+  else { out.cricondentherm_T_K = f2; out.cricondentherm_p_Pa = x2; }
+  if (best_T > out.cricondentherm_T_K) { out.cricondentherm_T_K = best_T; out.cricondentherm_p_Pa = S(grid[best]); }
+  out.found = true;
+  out.status = Status{};
   return out;
 }
 
