@@ -1309,7 +1309,7 @@ template <class S>
   // March down: fixed steps until two stationary points give the slope of tpd(T), then
   // secant predictions of the crossing (10 % beyond it), steps kept in [h/10, 3h].
   const int n_steps = 4 * static_cast<int>((static_cast<double>(T_top) - dopt.T_low_K) / dopt.scan_step_K) + 4;
-  S T_prev = T_top, T = T_top, step = h;
+  S T_prev = T_top, Tk = T_top, step = h;
   bool have_slope_point = false;
   S T_a(0), tpd_a(0);
   for (int k = 0; k <= n_steps; ++k) {
@@ -1324,10 +1324,10 @@ template <class S>
       }
       if (hi_valid) { T_a = T_prev; tpd_a = tpd_hi; have_slope_point = true; }
       else have_slope_point = false;
-      T = T_prev - step;
+      Tk = T_prev - step;
     }
-    if (T < S(dopt.T_low_K)) break;
-    const auto lt = detail::liquid_trial(feed, wd, T, p_Pa, have_W ? &Wlast : nullptr, opt, work);
+    if (Tk < S(dopt.T_low_K)) break;
+    const auto lt = detail::liquid_trial(feed, wd, Tk, p_Pa, have_W ? &Wlast : nullptr, opt, work);
     out.iterations += lt.iterations;
     // The feed has become a liquid: below here the isobar is past the dew line (a split
     // found there is a bubble point or a liquid-liquid one, not a hydrocarbon dew point).
@@ -1337,20 +1337,20 @@ template <class S>
       have_W = true;
       if (lt.tpd < S(0) && !lt.denser) break;  // a bubble point: the isobar passes above the dew line
       if (lt.tpd < S(0)) {
-        T_lo = T;
+        T_lo = Tk;
         tpd_lo = lt.tpd;
         lo_trial = lt;
         T_hi = T_prev;
         bracket = true;
         break;
       }
-      if (!have_best || lt.tpd < best_tpd) { best_T = T; best_tpd = lt.tpd; have_best = true; }
+      if (!have_best || lt.tpd < best_tpd) { best_T = Tk; best_tpd = lt.tpd; have_best = true; }
       hi_valid = true;
       tpd_hi = lt.tpd;
     } else {
       hi_valid = false;
     }
-    T_prev = T;
+    T_prev = Tk;
   }
   if (!bracket && have_best) {
     // golden-section search of the minimum of tpd(T) around the closest approach
