@@ -24,6 +24,7 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_quantities(app, exit_code);
   zcorr::cli::setup_audit(app, exit_code);
   zcorr::cli::setup_correct(app, exit_code);
+  zcorr::cli::setup_dewpoint(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

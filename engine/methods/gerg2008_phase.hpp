@@ -162,9 +162,22 @@ Roots<S> density_roots(const Prepared<S>& p, const TauCache<S>& c, const S& P, c
       out.capped = true;
     }
   }
+  // Liquid branch: down from delta_search_max in coarse steps of 5 scan steps (the liquid
+  // branch is steep and monotonic), the last coarse interval again in fine steps.
   S upper(delta_search_max), lower(0);
   bool lb = false;
-  for (int k = 0; k < n; ++k) {
+  int k0 = 0;  // fine index where the fine scan starts
+  for (int kc = 0; kc * 5 < n; ++kc) {
+    const S d = S(delta_search_max) - h * S(5 * kc);
+    if ((out.gas && d <= dg + h) || d <= h) break;
+    ++out.iterations;
+    const auto r = residual(p, c, d);
+    const S f = d * (S(1) + r.d1) - P;
+    const S fp = S(1) + S(2) * r.d1 + r.d2;
+    if (!(fp > S(0)) || f < S(0)) break;
+    k0 = 5 * kc;
+  }
+  for (int k = k0; k < n; ++k) {
     const S d = S(delta_search_max) - h * S(k);
     if (out.gas && d <= dg + h) break;
     if (d <= h) break;
@@ -209,7 +222,7 @@ bool refine_near(const Prepared<S>& p, const TauCache<S>& c, const S& P, const S
     const S fp = S(1) + S(2) * r.d1 + r.d2;
     if (!num::isfinite_(f) || !(fp > S(0))) return false;
     const S next = delta - f / fp;
-    if (!(next > S(0)) || num::abs_(S(next - delta0)) > S(0.1) * delta0) return false;
+    if (!(next > S(0)) || num::abs_(S(next - delta0)) > S(0.5) * delta0) return false;
     if (num::abs_(S(next - delta)) <= S(opt.rel_tol) * next) {
       delta = next;
       const auto r2 = residual(p, c, delta);
@@ -1512,6 +1525,73 @@ template <class S>
   if (f1 > f2) { out.cricondentherm_T_K = f1; out.cricondentherm_p_Pa = x1; }
   else { out.cricondentherm_T_K = f2; out.cricondentherm_p_Pa = x2; }
   if (best_T > out.cricondentherm_T_K) { out.cricondentherm_T_K = best_T; out.cricondentherm_p_Pa = S(grid[best]); }
+  out.found = true;
+  out.status = Status{};
+  return out;
+}
+
+
+template <class S>
+struct Cricondentherm {
+  S T_K{}, p_Pa{};
+  bool found = false;  // false with status ok: no dew point on the pressure grid
+  Status status{};
+  int iterations = 0;
+};
+
+// The cricondentherm alone (the quantity the per-state check compares with): dew
+// temperatures on a pressure grid up to the first pressure without one, then a
+// golden-section search of the maximum (to tol_p relative in pressure; the dew temperature
+// is flat there, so T is good to far better than that).
+template <class S>
+[[nodiscard]] Cricondentherm<S> cricondentherm(const Prepared<S>& feed, const PhaseOptions& opt = {},
+                                               const DewOptions& dopt = {}, double tol_p = 1e-3) noexcept {
+  Cricondentherm<S> out;
+  out.status = feed.status;
+  if (!feed.status.ok()) return out;
+  if (feed.n_active < 2 || !has_hydrocarbon_active(feed.active, feed.n_active)) {
+    out.status = make_status(Code::invalid_composition);
+    return out;
+  }
+  constexpr std::array<double, 14> grid{0.1e6, 0.5e6, 1e6, 2e6, 3e6, 4e6, 5e6, 6e6, 8e6, 10e6, 12e6, 15e6, 20e6, 30e6};
+  std::size_t best = grid.size(), last = grid.size();
+  S best_T(0), hint(0);
+  bool have_hint = false;
+  std::size_t k = 0;
+  for (; k < grid.size(); ++k) {
+    S start = hint + S(10);
+    const auto dp = dew_temperature(feed, S(grid[k]), opt, dopt, have_hint ? &start : nullptr);
+    out.iterations += dp.iterations;
+    if (dp.outcome != DewOutcome::found) {
+      if (dp.outcome != DewOutcome::none_at_pressure) { out.status = dp.status; return out; }
+      break;
+    }
+    last = k;
+    hint = dp.T_K;
+    have_hint = true;
+    if (best == grid.size() || dp.T_K > best_T) { best_T = dp.T_K; best = k; }
+    if (k > best + 1) break;  // past the maximum: the dew temperature falls towards the cricondenbar
+  }
+  if (best == grid.size()) { out.status = Status{}; return out; }
+  if (k == grid.size()) { out.status = make_status(Code::out_of_range); return out; }
+  S a = best == 0 ? S(grid[0] / 2) : S(grid[best - 1]);
+  S b = best + 1 <= last ? S(grid[best + 1]) : S(grid[best]);
+  const S gr = (num::sqrt_(S(5)) - S(1)) / S(2);
+  auto Tdew = [&](const S& p) {
+    S start = best_T + S(5);
+    const auto dp = dew_temperature(feed, p, opt, dopt, &start);
+    out.iterations += dp.iterations;
+    return dp.outcome == DewOutcome::found ? dp.T_K : S(0);
+  };
+  S x1 = b - gr * (b - a), x2 = a + gr * (b - a);
+  S f1 = Tdew(x1), f2 = Tdew(x2);
+  for (int it = 0; it < 60 && b - a > S(tol_p) * b; ++it) {
+    if (f1 > f2) { b = x2; x2 = x1; f2 = f1; x1 = b - gr * (b - a); f1 = Tdew(x1); }
+    else { a = x1; x1 = x2; f1 = f2; x2 = a + gr * (b - a); f2 = Tdew(x2); }
+  }
+  out.T_K = f1 > f2 ? f1 : f2;
+  out.p_Pa = f1 > f2 ? x1 : x2;
+  if (best_T > out.T_K) { out.T_K = best_T; out.p_Pa = S(grid[best]); }
   out.found = true;
   out.status = Status{};
   return out;
