@@ -14,6 +14,8 @@
 #include <string>
 #include <vector>
 
+#include "eval/line_method.hpp"
+#include "eval/phase_check.hpp"
 #include "io/csv.hpp"
 #include "io/text.hpp"
 
@@ -538,4 +540,82 @@ TEST(Gerg2008PhaseStatus, BadInput) {
   EXPECT_EQ(ph::dew_temperature(pb, 1e6).status.code, Code::invalid_composition);
   // only water: nothing left of the hydrocarbon basis
   EXPECT_EQ(ph::prepare_dry(pure(Component::water), pb).code, Code::invalid_composition);
+}
+
+// --- the line-state path (LineMethod, eval/phase_check.hpp) -----------------------
+
+// No state is both ok and unstable: over a grid of states every ok state of LineMethod
+// is stable by the full test and every two_phase one unstable, whether it was settled by
+// the test or by comparison with the cached cricondentherm.
+TEST(Gerg2008LineState, NoStateIsBothOkAndUnstable) {
+  for (const auto& gas : {std::string("G05"), std::string("G20"), std::string("sample12")}) {
+    const auto x = gas == "sample12" ? samples::pipeline_gas_12() : reference_gas(gas);
+    auto m = make_line_method(MethodId::gerg2008);
+    ASSERT_TRUE(m->prepare(x).ok());
+    const auto p = prep<double>(x);
+    int two = 0, ok = 0;
+    for (double T = 240.0; T <= 300.0; T += 7.5) {
+      for (double P : {0.5e6, 2e6, 4e6, 7e6, 10e6}) {
+        const auto out = m->state(T, P, EvalOptions{});
+        const auto st = ph::stability(p, T, P);
+        ASSERT_TRUE(st.status.ok()) << gas << " " << T << " " << P;
+        if (out.status.ok()) {
+          ++ok;
+          EXPECT_FALSE(st.unstable) << gas << " " << T << " " << P;
+          EXPECT_TRUE(out.has(Quantity::Z));
+        } else if (out.status.code == Code::two_phase) {
+          ++two;
+          EXPECT_TRUE(st.unstable) << gas << " " << T << " " << P;
+          EXPECT_FALSE(out.has(Quantity::Z));
+        }
+      }
+    }
+    EXPECT_GT(ok, 0);
+    EXPECT_GT(two, 0) << gas;
+  }
+}
+
+TEST(Gerg2008LineState, SharedTwoPhaseStatesAreTwoPhaseAndTheBareEquationIsNot) {
+  for (const auto& t : shared_two_phase) {
+    auto m = make_line_method(MethodId::gerg2008);
+    ASSERT_TRUE(m->prepare(reference_gas(t.gas)).ok());
+    EXPECT_EQ(m->state(t.T_K, t.p_Pa, EvalOptions{}).status.code, Code::two_phase) << t.gas;
+    EvalOptions bare;
+    bare.phase_check = false;
+    EXPECT_TRUE(m->state(t.T_K, t.p_Pa, bare).status.ok()) << t.gas;  // the metastable gas root
+  }
+}
+
+// Pure fluids keep the density solver's rule (tests/gerg2008_test.cpp, NoGasRootAndTwoPhase).
+TEST(Gerg2008LineState, PureFluidsKeepTheirBehaviour) {
+  auto m = make_line_method(MethodId::gerg2008);
+  ASSERT_TRUE(m->prepare(pure(Component::methane)).ok());
+  EXPECT_TRUE(m->state(150.0, 0.5e6, EvalOptions{}).status.ok());
+  EXPECT_EQ(m->state(150.0, 1.2e6, EvalOptions{}).status.code, Code::two_phase);
+  EXPECT_EQ(m->state(150.0, 5e6, EvalOptions{}).status.code, Code::no_gas_root);
+  PhaseCheck pc;
+  ASSERT_TRUE(pc.prepare(pure(Component::methane)).ok());
+  EXPECT_FALSE(pc.applies());
+  EXPECT_EQ(pc.check(150.0, 1.2e6).verdict, PhaseVerdict::not_applicable);
+}
+
+// The cache: after a few full tests the cricondentherm settles states above it by comparison.
+TEST(Gerg2008LineState, CricondenthermSettlesHotStatesByComparison) {
+  PhaseCheck pc;
+  ASSERT_TRUE(pc.prepare(reference_gas("G05")).ok());
+  ASSERT_TRUE(pc.applies());
+  int compared = 0;
+  for (int k = 0; k < 40; ++k) {
+    const auto r = pc.check(283.15 + 0.1 * k, 4e6);
+    EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
+    if (r.by_comparison) ++compared;
+  }
+  EXPECT_GE(compared, 40 - pc.states_before_cache);
+  const auto* c = pc.cricondentherm();
+  ASSERT_NE(c, nullptr);
+  // the same figure as the full envelope computation (CricondenthermAndCricondenbar)
+  const auto e = ph::envelope_bounds(prep<double>(reference_gas("G05")));
+  EXPECT_NEAR(c->T_K, e.cricondentherm_T_K, 1e-3);
+  // a state below the cricondentherm is still tested
+  EXPECT_FALSE(pc.check(c->T_K - 5.0, 2e6).by_comparison);
 }
