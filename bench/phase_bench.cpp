@@ -91,6 +91,25 @@ void BM_LineState_PhaseCheckOff(benchmark::State& st) { run_line(st, false); }
 BENCHMARK(BM_LineState_PhaseCheckOn)->Unit(benchmark::kMicrosecond);
 BENCHMARK(BM_LineState_PhaseCheckOff)->Unit(benchmark::kMicrosecond);
 
+// Line states below the cricondentherm (246.9 K at 3.87 MPa for this gas) but above the dew
+// temperature at their pressure (234.5-236.8 K at 0.9-1.1 MPa): settled by the cached dew
+// temperatures of the pressure nodes around them.
+constexpr double cold[][2] = {{241.0, 0.95e6}, {243.5, 1.02e6}, {245.0, 1.08e6}, {242.2, 0.91e6},
+                              {246.0, 1.05e6}, {244.1, 0.99e6}, {240.5, 0.93e6}, {245.7, 1.07e6}};
+void BM_LineState_BelowCricondentherm(benchmark::State& st) {
+  auto m = make_line_method(MethodId::gerg2008);
+  (void)m->prepare(samples::pipeline_gas_12());
+  EvalOptions o;
+  for (int k = 0; k < 64; ++k) (void)m->state(cold[k % 8][0], cold[k % 8][1], o);
+  std::size_t k = 0;
+  for (auto _ : st) {
+    const auto& s = cold[k++ % 8];
+    auto out = m->state(s[0], s[1], o);
+    benchmark::DoNotOptimize(out);
+  }
+}
+BENCHMARK(BM_LineState_BelowCricondentherm)->Unit(benchmark::kMicrosecond);
+
 // A new analysis and its first 15 line states (one analysis every 15 minutes, a state a minute).
 void BM_NewAnalysisAnd15States(benchmark::State& st) {
   auto m = make_line_method(MethodId::gerg2008);

@@ -619,3 +619,22 @@ TEST(Gerg2008LineState, CricondenthermSettlesHotStatesByComparison) {
   // a state below the cricondentherm is still tested
   EXPECT_FALSE(pc.check(c->T_K - 5.0, 2e6).by_comparison);
 }
+
+// Below the cricondentherm the cached dew temperatures of the pressure nodes settle states
+// above the dew line; every state so settled is stable by the full test.
+TEST(Gerg2008LineState, DewNodeCacheSettlesOnlyStableStates) {
+  const auto x = reference_gas("G05");
+  PhaseCheck pc;
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto p = prep<double>(x);
+  int compared = 0;
+  for (double T = 256.0; T <= 276.0; T += 1.3) {
+    for (double P = 1.0e6; P <= 9.0e6; P += 0.61e6) {
+      const auto r = pc.check(T, P);
+      if (!r.by_comparison) continue;
+      ++compared;
+      EXPECT_FALSE(ph::stability(p, T, P).unstable) << T << " " << P;
+    }
+  }
+  EXPECT_GT(compared, 40);
+}

@@ -8,9 +8,16 @@
 // gas lies above its cricondentherm). The cricondentherm is computed lazily, after
 // `states_before_cache` states of the same analysis needed the full test, so that
 // preparing an analysis stays cheap and a one-off state pays only its own test.
+// Below the cricondentherm, the dew temperature is cached the same way on a pressure grid
+// (nodes every `node_step_Pa`), computed at the two nodes around a state's pressure once a
+// state falls there: a state more than `margin_K` above the higher of the two is
+// single-phase (between nodes 0.1 MPa apart the dew temperature rises above both by far
+// less than the margin: its curvature is of order 1 K/MPa^2 or less away from the
+// cricondenbar, where it falls with pressure).
 // Not thread-safe (the cache is per object). Does not allocate, does not throw.
 #pragma once
 
+#include <array>
 #include <cstdint>
 
 #include "core/composition.hpp"
@@ -36,6 +43,8 @@ class PhaseCheck {
  public:
   double margin_K = 0.5;
   int states_before_cache = 8;
+  static constexpr double node_step_Pa = 0.1e6;
+  static constexpr std::size_t n_nodes = 400;  // up to 40 MPa
 
   // Returns the status of the water-free basis (not ok: the check does not apply).
   Status prepare(const Fractions<double>& x) noexcept;
@@ -50,6 +59,10 @@ class PhaseCheck {
   int full_tests_ = 0;
   bool cct_tried_ = false;
   gerg2008::phase::Cricondentherm<double> cct_{};
+  // Dew temperature at node k (p = k node_step_Pa): NaN unknown, -1 none at that pressure,
+  // -2 not computable (the full test is used there).
+  std::array<double, n_nodes> node_T_{};
+  [[nodiscard]] double node(std::size_t k) noexcept;
 };
 
 }  // namespace zcorr
