@@ -599,8 +599,9 @@ TEST(Gerg2008LineState, PureFluidsKeepTheirBehaviour) {
   EXPECT_EQ(pc.check(150.0, 1.2e6).verdict, PhaseVerdict::not_applicable);
 }
 
-// The cache: after a few full tests the cricondentherm settles states above it by comparison.
-TEST(Gerg2008LineState, CricondenthermSettlesHotStatesByComparison) {
+// The cache: after a few full tests, the cached dew temperatures settle states above the
+// dew line by comparison, and with states spread over many pressures the cricondentherm.
+TEST(Gerg2008LineState, CachedDewTemperaturesSettleHotStatesByComparison) {
   PhaseCheck pc;
   ASSERT_TRUE(pc.prepare(reference_gas("G05")).ok());
   ASSERT_TRUE(pc.applies());
@@ -610,14 +611,30 @@ TEST(Gerg2008LineState, CricondenthermSettlesHotStatesByComparison) {
     EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
     if (r.by_comparison) ++compared;
   }
-  EXPECT_GE(compared, 40 - pc.states_before_cache);
+  EXPECT_GE(compared, 40 - pc.states_before_nodes);
+  for (int k = 0; k < 40; ++k) (void)pc.check(290.0, 0.5e6 + 0.25e6 * k);  // many pressures
   const auto* c = pc.cricondentherm();
   ASSERT_NE(c, nullptr);
   // the same figure as the full envelope computation (CricondenthermAndCricondenbar)
   const auto e = ph::envelope_bounds(prep<double>(reference_gas("G05")));
   EXPECT_NEAR(c->T_K, e.cricondentherm_T_K, 1e-3);
-  // a state below the cricondentherm is still tested
-  EXPECT_FALSE(pc.check(c->T_K - 5.0, 2e6).by_comparison);
+  EXPECT_TRUE(pc.check(c->T_K + 1.0, 22e6).by_comparison);
+  // a state in the two-phase region is still tested, and found so
+  const auto in = pc.check(260.0, 2e6);
+  EXPECT_FALSE(in.by_comparison);
+  EXPECT_EQ(in.verdict, PhaseVerdict::two_phase);
+  // a close next analysis: its node searches start from the previous ones and give the same
+  // verdicts as the full test
+  auto x = reference_gas("G05");
+  x[index(Component::n_hexane)] *= 1.05;
+  x[index(Component::methane)] -= 0.05 * reference_gas("G05")[index(Component::n_hexane)];
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto p2 = prep<double>(x);
+  for (double T = 262.0; T < 290.0; T += 1.7) {
+    const auto r = pc.check(T, 4.1e6);
+    const auto st = ph::stability(p2, T, 4.1e6);
+    EXPECT_EQ(r.verdict == PhaseVerdict::two_phase, st.unstable) << T;
+  }
 }
 
 // Below the cricondentherm the cached dew temperatures of the pressure nodes settle states
