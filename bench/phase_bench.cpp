@@ -4,16 +4,19 @@
 // phase check in the flow computer's path (LineMethod::state with and without the check;
 // target <= 20 us median for a state well inside the gas region).
 //   build/bench/phase_bench --benchmark_repetitions=5 --benchmark_report_aggregates_only=true
-// Measured 2026-12-02, Release, on the 2-core project machine at load 0.4-1.1 (median of 3,
+// Measured 2026-12-02, Release, on the 2-core project machine at load 1.4-2.0 (median of 3,
 // CPU time; the invented 12-component gas of tests/support, water-free basis):
-//   dew point at 5 MPa 1.35 ms, at 1 MPa 0.91 ms (target <= 2 ms);
-//   cricondentherm alone 16.8 ms; cricondentherm + cricondenbar 165 ms;
-//   one full stability test of a single-phase state 170 us;
-//   line state through LineMethod, phase check on 2.67 us, off 2.68 us (the check is one
-//   comparison with the cached cricondentherm; target <= 20 us median);
-//   line state below the cricondentherm, above its dew line 3.20 us (cached node dew points);
-//   a new analysis and its first 15 states 17.0 ms (8 full tests, then the cricondentherm).
-// Under load 5 (other builds on both cores) the same runs took 1.5-2x as long.
+//   dew point at 5 MPa 1.33 ms, at 1 MPa 0.89 ms (target <= 2 ms);
+//   cricondentherm alone 15.6 ms; cricondentherm + cricondenbar 158 ms;
+//   one full stability test of a single-phase state 162 us;
+//   line state through LineMethod, phase check on 2.56 us, off 2.56 us (the check is a
+//   comparison with a cached dew temperature; target <= 20 us median);
+//   line state below the cricondentherm, above its dew line 2.91 us;
+//   a new (close) analysis and its first 15 states 0.34 ms (two warm trial phases confirm the
+//   node dew temperatures; 17 ms when the cricondentherm was computed per analysis).
+// Audit of the demo week (672 analyses, 10,080 intervals, zcorr audit): 0.22 s with the
+// check, 0.05 s without (most of it the two trial phases per analysis). Under load 5 (other
+// builds on both cores) the runs took 1.5-2x as long.
 #include <benchmark/benchmark.h>
 
 #include "eval/line_method.hpp"
