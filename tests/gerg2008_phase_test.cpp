@@ -655,3 +655,15 @@ TEST(Gerg2008LineState, DewNodeCacheSettlesOnlyStableStates) {
   }
   EXPECT_GT(compared, 40);
 }
+
+// The dew temperature in double and in 50 digits (same code): they agree to the search
+// tolerance (DewOptions::tol_K = 1e-7 K) and the trial tolerances; measured: within 1e-9 K.
+TEST(Gerg2008DewPoint, DoubleAgreesWith50Digits) {
+  const auto z = reference_gas("G05");
+  const auto dd = ph::dew_temperature(prep<double>(z), 2e6);
+  const auto dm = ph::dew_temperature(prep<mp>(z), mp(2e6));
+  ASSERT_EQ(dd.outcome, ph::DewOutcome::found);
+  ASSERT_EQ(dm.outcome, ph::DewOutcome::found);
+  EXPECT_NEAR(dd.T_K, static_cast<double>(dm.T_K), 1e-6);
+  std::printf("G05 dew temperature at 2 MPa: double %.9f K, 50 digits %.9f K\n", dd.T_K, static_cast<double>(dm.T_K));
+}
