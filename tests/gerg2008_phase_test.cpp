@@ -667,3 +667,31 @@ TEST(Gerg2008DewPoint, DoubleAgreesWith50Digits) {
   EXPECT_NEAR(dd.T_K, static_cast<double>(dm.T_K), 1e-6);
   std::printf("G05 dew temperature at 2 MPa: double %.9f K, 50 digits %.9f K\n", dd.T_K, static_cast<double>(dm.T_K));
 }
+
+// The stability test and the dew temperature agree: over a grid of every reference gas
+// (235-300 K, 0.5-10 MPa) a state is unstable exactly when it lies below the dew
+// temperature at its pressure (and never above the cricondenbar).
+TEST(Gerg2008DewPoint, StabilityAndDewTemperatureAgreeOnAGrid) {
+  std::map<std::string, Fractions<double>> gases;
+  for (const auto& s : reference_states()) {
+    const std::string gas = s.id.substr(0, s.id.find("_T"));
+    if (gas.rfind("G", 0) == 0 && !gases.count(gas)) gases[gas] = s.x;
+  }
+  ASSERT_EQ(gases.size(), 8u);
+  int two = 0;
+  for (const auto& [gas, x] : gases) {
+    const auto p = prep<double>(x);
+    for (double P = 0.5e6; P <= 10e6; P += 1.0e6) {
+      const auto d = ph::dew_temperature(p, P);
+      ASSERT_TRUE(d.outcome == ph::DewOutcome::found || d.outcome == ph::DewOutcome::none_at_pressure) << gas << " " << P;
+      for (double T = 235.0; T <= 300.0; T += 5.0) {
+        const auto s = ph::stability(p, T, P, ph::PhaseOptions{}, true);
+        ASSERT_TRUE(s.status.ok()) << gas << " " << T << " " << P;
+        const bool below = d.outcome == ph::DewOutcome::found && T < d.T_K;
+        EXPECT_EQ(s.unstable, below) << gas << " " << T << " " << P << " dew " << d.T_K;
+        two += s.unstable ? 1 : 0;
+      }
+    }
+  }
+  EXPECT_GT(two, 100);
+}
