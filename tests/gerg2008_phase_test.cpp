@@ -81,7 +81,7 @@ Fractions<S> analytic_dn(const Fractions<double>& x, const S& T_K, const S& rho)
 
 }  // namespace
 
-// The analytic d(n alpha_r)/dn_i (Kunz & Wagner 2012, Table B4 forms) against a central
+// The analytic d(n alpha_r)/dn_i (Kunz & Wagner 2012 derivative forms) against a central
 // difference of n alpha_r in 50 digits (step 1e-20 mol: truncation ~1e-40, rounding ~1e-30).
 TEST(Gerg2008Fugacity, DerivativeOfNAlpharMatchesCentralDifference) {
   const std::vector<std::pair<Fractions<double>, std::pair<double, double>>> cases{
@@ -364,7 +364,7 @@ double equal_area_deviation(const gerg2008::Prepared<double>& p, double T, const
 // Ref. Data 20, 1061). The GERG-2008 pure-fluid equations are short forms fitted to those
 // reference equations. Their own critical point (found here by Newton on the two critical
 // conditions) comes close; measured: both within 1e-6 K in T and 1e-8 relative in p (the
-// GERG-2008 equations of methane and CO2 are of reference quality; Kunz & Wagner 2012, sec. 4).
+// GERG-2008 equations of methane and CO2 are of reference quality in Kunz & Wagner 2012, from memory).
 // Tolerances 1e-4 K and 1e-6 relative.
 TEST(Gerg2008Saturation, CriticalPointsOfThePureEquationsAreCloseToPublishedOnes) {
   struct Pub { Component c; double Tc, pc; };

@@ -4,8 +4,10 @@
 //
 // Sources:
 //  * Fugacity coefficients from the composition derivatives of n alpha_r:
-//    O. Kunz, W. Wagner, J. Chem. Eng. Data 57 (2012) 3032-3091, section 7.3 and
-//    Table B4 (the same forms as ISO 20765-2):
+//    O. Kunz, W. Wagner, J. Chem. Eng. Data 57 (2012) 3032-3091, the derivatives of the
+//    reduced residual Helmholtz energy with respect to the mole numbers (their section 7
+//    and appendix tables; section and table numbers from memory), the same forms as
+//    ISO 20765-2:
 //      ln phi_i = d(n alpha_r)/dn_i - ln Z,
 //      d(n alpha_r)/dn_i = alpha_r + n (d alpha_r/dn_i),
 //      n (d alpha_r/dn_i) = delta alpha_r_delta [1 - (1/rho_r) n (d rho_r/dn_i)]
@@ -20,7 +22,8 @@
 //      ln K_i = ln(pc_i/p) + 5.373 (1 + omega_i)(1 - Tc_i/T).
 //  * Flash: Rachford-Rice equation (Rachford & Rice 1952) with successive substitution on
 //    ln K_i = ln phi_i(liquid) - ln phi_i(vapour) (Michelsen & Mollerup, Thermodynamic
-//    Models: Fundamentals & Computational Aspects, 2007, ch. 10).
+//    Models: Fundamentals & Computational Aspects, 2nd ed. 2007; chapter from memory: the
+//    flash chapter).
 //  * Pure-fluid saturation: equal fugacities (equal Gibbs energies) of the two roots of the
 //    isotherm, i.e. Maxwell's equal-area rule.
 //
@@ -31,6 +34,16 @@
 // B. E. Poling, J. M. Prausnitz, J. P. O'Connell, The Properties of Gases and Liquids,
 // 5th ed., Appendix A, rounded). They only start the iterations: the converged results
 // depend on GERG-2008 alone.
+//
+// Limits (said where they apply): the stability test, like every tangent-plane test from
+// finitely many trial phases, proves instability (a negative tm*) but not stability; its
+// trials are the Wilson vapour-like and liquid-like ones and one rich in the heaviest
+// component. The flash uses accelerated successive substitution only (no Newton stage):
+// close to a mixture critical point it may stop with no_convergence. The dew-point search
+// follows the liquid-like trial down an isobar and stops where the feed itself turns
+// liquid, so it gives the upper (hydrocarbon) dew point and not bubble points or
+// liquid-liquid splits at cryogenic temperatures; the envelope is not traced through the
+// critical point. Water is not treated (prepare_dry removes it).
 //
 // Every function here does not throw, does not allocate and does no I/O; all loops are
 // bounded by table sizes or by the iteration limits in PhaseOptions.
@@ -288,7 +301,7 @@ void pair_factor_derivs(const S& xi, const S& xj, const S& beta, S& dfi, S& dfj)
 }  // namespace detail
 
 // The composition derivatives of the reducing functions, x_k treated as independent
-// (Kunz & Wagner 2012, Table B4): dT_r/dx_i and dv_r/dx_i (v_r = 1/rho_r), active i only.
+// (Kunz & Wagner 2012, derivative forms of the reducing functions): dT_r/dx_i and dv_r/dx_i (v_r = 1/rho_r), active i only.
 template <class S>
 struct ReducingDerivs {
   Fractions<S> dTr{};
