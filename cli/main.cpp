@@ -33,6 +33,7 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_quantities(app, exit_code);
   zcorr::cli::setup_audit(app, exit_code);
   zcorr::cli::setup_correct(app, exit_code);
+  zcorr::cli::setup_dewpoint(app, exit_code);
   // Every command's --help ends with the caution (those that state it already keep theirs).
   std::function<void(CLI::App*)> caution_in_help = [&](CLI::App* a) {
     for (CLI::App* sub : a->get_subcommands([](CLI::App*) { return true; })) {

@@ -1,7 +1,7 @@
 # Every command's --help ends with the caution, and every human-readable output
 # ends with its one-line form (the house safety rule; for zcorr cases the line
 # comes just before the closing "N passed, N failed").
-foreach(cmd z convert cases demo props record verify quantities audit correct)
+foreach(cmd z convert cases demo props record verify quantities audit correct dewpoint)
   zcorr_cli_test(NAME help_caution_${cmd} ARGS ${cmd} --help MATCH "CAUTION: ")
 endforeach()
 foreach(sub export points answers)
