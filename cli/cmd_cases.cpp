@@ -33,7 +33,7 @@ int run_cases(const CasesOptions& o) {
                   << " expected " << io::format_sig(k.expected, 12) << " deviation " << io::format_sig(k.deviation, 3)
                   << '\n';
   }
-  std::cout << passed << " passed, " << failed << " failed\n";
+  std::cout << caution_line << '\n' << passed << " passed, " << failed << " failed\n";
   return failed == 0 ? exit_ok : exit_partial;
 }
 

@@ -151,6 +151,7 @@ int run_convert(const ConvertOptions& o) {
       line("Hs data", std::string(data_source_text) + "; rows below medium-high confidence: " +
                           doubtful_rows_text(iso6976::doubtful_components(comp->x, setup.combustion)));
   }
+  std::cout << caution_line << '\n';
   return exit_ok;
 }
 

@@ -102,6 +102,7 @@ int run_props(const PropsOptions& o) {
     }
     j["doubtful_rows"] = arr;
     j["doubtful_constants"] = ctext;
+    j["caution"] = caution_line;
     std::cout << j.dump(2) << '\n';
   } else if (o.format == Format::csv) {
     std::vector<std::string> head{"combustion_ref_C", "metering_ref_C", "metering_p_kPa"};
@@ -129,7 +130,7 @@ int run_props(const PropsOptions& o) {
     }
     std::cout << "status      " << status_text(r.status) << '\n'
               << "provenance  data: " << data_source_text << "; doubtful rows (below medium-high): " << rows
-              << "; doubtful constants: " << ctext << '\n';
+              << "; doubtful constants: " << ctext << '\n' << caution_line << '\n';
   }
   return exit_ok;
 }

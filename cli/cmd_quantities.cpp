@@ -87,7 +87,7 @@ int run_quantities(const QuantitiesOptions& o) {
     std::cout << rows.size() << " record(s)";
     if (corrected)
       std::cout << "; the records are as recorded, the corrected columns sum the intervals no correction replaces";
-    std::cout << '\n';
+    std::cout << '\n' << caution_line << '\n';
   }
   return exit_ok;
 }

@@ -73,6 +73,7 @@ int run_record(const RecordCliOptions& o) {
   if (o.format == Format::json) {
     nlohmann::json j;
     j["db"] = o.db;
+    j["caution"] = caution_line;
     j["point"] = cfg.point;
     j["rows"] = st.rows;
     j["skipped_already_recorded"] = st.skipped;
@@ -102,6 +103,7 @@ int run_record(const RecordCliOptions& o) {
               << "  head               seq " << log.head_seq() << ", hash " << to_hex(log.head_hash()) << '\n';
     if (st.rows_left > 0)
       std::cout << "  left               " << st.rows_left << " rows of an incomplete last interval (recorded by the next run)\n";
+    std::cout << caution_line << '\n';
   }
   return bad_rows > 0 ? exit_partial : exit_ok;
 }

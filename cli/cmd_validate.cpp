@@ -166,13 +166,14 @@ void print_text(const validate::ToleranceReport& rep, const std::vector<std::str
   std::cout << '\n';
   const std::size_t n = rep.rows.size();
   if (rep.passed()) {
-    std::cout << "RESULT: PASS - all " << n << ' ' << row_word << " within tolerance\n";
+    std::cout << "RESULT: all " << n << ' ' << row_word << " within tolerance of zcorr's recomputation\n";
   } else {
-    std::cout << "RESULT: FAIL - " << rep.rows_outside() << " of " << n << ' ' << row_word << " outside tolerance";
+    std::cout << "RESULT: " << rep.rows_outside() << " of " << n << ' ' << row_word << " outside tolerance of zcorr's recomputation";
     if (rep.not_recomputed) std::cout << ", " << rep.not_recomputed << " not recomputed";
     if (rep.unanswered) std::cout << ", " << rep.unanswered << " with nothing to compare";
     std::cout << '\n';
   }
+  std::cout << "(a comparison with zcorr's own figures, not a certification)\n" << caution_line << '\n';
 }
 
 void print_csv(const validate::ToleranceReport& rep, const char* label_name, const char* reference_word) {
@@ -265,6 +266,7 @@ int run_export(const ExportOptions& o) {
   if (o.format == Format::json) {
     auto j = report_json(rep, "time", "recomputed");
     j["command"] = "validate export";
+    j["caution"] = caution_line;
     j["data"] = o.data;
     j["map"] = o.map;
     j["method"] = mo.method;
@@ -310,6 +312,7 @@ int run_points(const PointsOptions& o) {
       << base_text(base) << (o.out == "-" ? "" : " written to " + o.out) << '\n';
   for (const auto& s : set.skipped)
     msg << "  left out " << s.id << " (" << s.why << "): the method gives " << status_text(s.status) << '\n';
+  msg << caution_line << '\n';
   return exit_ok;
 }
 
@@ -326,6 +329,7 @@ int run_answers(const AnswersOptions& o) {
   if (o.format == Format::json) {
     auto j = report_json(rep, "point", "expected");
     j["command"] = "validate answers";
+    j["caution"] = caution_line;
     j["file"] = o.file;
     j["expected_recomputed"] = rep.expected_checked;
     std::cout << j.dump(2) << '\n';

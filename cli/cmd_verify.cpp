@@ -34,6 +34,7 @@ int run_verify(const VerifyOptions& o) {
   if (o.format == Format::json) {
     nlohmann::json j;
     j["db"] = o.db;
+    j["caution"] = caution_line;
     j["schema_version"] = r.schema_version;
     j["log_id"] = r.log_id;
     j["records"] = r.records;
@@ -83,6 +84,7 @@ int run_verify(const VerifyOptions& o) {
       if (r.findings_total > static_cast<std::int64_t>(r.findings.size()))
         std::cout << "  ... " << (r.findings_total - static_cast<std::int64_t>(r.findings.size())) << " more\n";
     }
+    std::cout << caution_line << '\n';
   }
   return clean ? exit_ok : exit_partial;
 }

@@ -7,6 +7,9 @@
 // empty Z. Exit 0 when every row computed, 1 when some did not, 2 for unusable
 // input.
 //
+// GERG-2008 mixture states are checked for phase stability (eval/phase_check.hpp); a
+// two-phase state gets status two_phase and no Z.
+//
 // Gross-characterization methods (sgerg88, gross1, gross2) also take their
 // gross inputs: as options in single-state mode (--Hs, --d, --x-co2, --x-h2,
 // --x-n2) and as batch columns (Hs_MJ_per_m3 or HV_Btu_per_ft3, d, x_CO2,
@@ -140,6 +143,9 @@ int run_single(const ZOptions& o) {
         std::cout << "  " << quantity_names[i] << std::string(18 - std::min<std::size_t>(17, quantity_names[i].size()), ' ')
                   << io::format_sig(out.q[i], 12) << '\n';
     std::cout << "status   " << status_text(out.status) << " (range: " << range_name(out.status.range) << ")\n";
+    if (out.status.code == Code::two_phase && id == MethodId::gerg2008)
+      std::cout << "note     not single-phase gas at this state (below its dew point; see zcorr dewpoint):\n"
+                   "         no Z is given, the metered volume and energy are not those of the gas\n";
   }
   if (!computed) {
     std::cerr << "zcorr z: not computed: " << status_text(out.status) << '\n';

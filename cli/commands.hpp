@@ -17,5 +17,6 @@ void setup_verify(CLI::App& app, int& exit_code);
 void setup_quantities(CLI::App& app, int& exit_code);
 void setup_audit(CLI::App& app, int& exit_code);
 void setup_correct(CLI::App& app, int& exit_code);
+void setup_dewpoint(CLI::App& app, int& exit_code);
 
 }  // namespace zcorr::cli

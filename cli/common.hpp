@@ -27,6 +27,11 @@ inline constexpr const char* caution_text =
     "legal-metrology rules and licensed measurement practice before relying on it. High-pressure gas\n"
     "is dangerous: zcorr computes numbers, it does not make an installation safe.";
 
+// The one-line form, last line of every human-readable output (and a
+// `caution` field in JSON objects).
+inline constexpr const char* caution_line =
+    "CAUTION: check every result against the contract, local legal-metrology rules and licensed measurement practice before relying on it.";
+
 // A gas analysis given on the command line: --gas LIST or --gas-file FILE.
 struct GasOptions {
   std::string gas;

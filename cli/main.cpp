@@ -1,6 +1,8 @@
 // zcorr: the command-line tool. main only wires the commands.
 #include <CLI/CLI.hpp>
 
+#include <functional>
+
 #include "commands.hpp"
 #include "common.hpp"
 #include "record/log.hpp"
@@ -31,6 +33,15 @@ int main(int argc, char** argv) {
   zcorr::cli::setup_quantities(app, exit_code);
   zcorr::cli::setup_audit(app, exit_code);
   zcorr::cli::setup_correct(app, exit_code);
+  zcorr::cli::setup_dewpoint(app, exit_code);
+  // Every command's --help ends with the caution (those that state it already keep theirs).
+  std::function<void(CLI::App*)> caution_in_help = [&](CLI::App* a) {
+    for (CLI::App* sub : a->get_subcommands([](CLI::App*) { return true; })) {
+      if (sub->get_footer().find("CAUTION") == std::string::npos) sub->footer(sub->get_footer() + "\n" + zcorr::cli::caution_text);
+      caution_in_help(sub);
+    }
+  };
+  caution_in_help(&app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::CallForHelp& e) {

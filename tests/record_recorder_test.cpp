@@ -213,7 +213,14 @@ TEST(Recorder, KilledMidRecordingLosesNothingCommittedAndResumes) {
     ::waitpid(pid, &status, 0);
     if (WIFSIGNALED(status)) ++kills;
     else EXPECT_EQ(WEXITSTATUS(status), 0);
-    // Nothing committed is lost, and what is there verifies.
+    // Nothing committed is lost, and what is there verifies. A kill before
+    // the first commit (likelier on a loaded machine) leaves an empty file,
+    // which the next run takes up: nothing was committed, nothing to check.
+    if (committed == 0 && (std::filesystem::file_size(p) == 0 || [&] {
+          try { Log probe(p, {OpenMode::read_only}); return scalar(probe.db(), "SELECT count(*) FROM log_header") <= 0; }
+          catch (const std::exception&) { return true; }
+        }()))
+      continue;
     Log log(p, {OpenMode::read_only});
     auto r = verify_log(log);
     for (const auto& f : r.findings) ADD_FAILURE() << "after kill " << round << ": " << f.table << " seq " << f.seq << " " << f.detail;

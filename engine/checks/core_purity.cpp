@@ -14,6 +14,7 @@
 #include "methods/aga8_gross.hpp"
 #include "methods/iso6976.hpp"
 #include "methods/gerg2008.hpp"
+#include "methods/gerg2008_phase.hpp"
 #include "methods/sgerg88.hpp"
 #include "methods/detail.hpp"
 
@@ -30,6 +31,29 @@ template gerg2008::Properties<double> gerg2008::properties_at_density<double>(co
 template ZResult<double> gerg2008::z_factor<double>(const gerg2008::Prepared<double>&, const double&, const double&,
                                                     const SolveOptions&) noexcept;
 template gerg2008::Residual<double> gerg2008::alphar<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
+template Status gerg2008::phase::evaluate_phase<double>(const Fractions<double>&, const double&, const double&,
+                                                       gerg2008::phase::Root, gerg2008::phase::PhaseState<double>&,
+                                                       const SolveOptions&, bool) noexcept;
+template gerg2008::phase::Stability<double> gerg2008::phase::stability<double>(const gerg2008::Prepared<double>&,
+                                                                               const double&, const double&,
+                                                                               const gerg2008::phase::PhaseOptions&, bool) noexcept;
+template gerg2008::phase::Flash<double> gerg2008::phase::flash<double>(const gerg2008::Prepared<double>&, const double&,
+                                                                       const double&,
+                                                                       const gerg2008::phase::Stability<double>&,
+                                                                       const gerg2008::phase::PhaseOptions&) noexcept;
+template gerg2008::phase::Saturation<double> gerg2008::phase::saturation_pressure<double>(
+    const gerg2008::Prepared<double>&, const double&, const gerg2008::phase::PhaseOptions&) noexcept;
+template gerg2008::phase::Saturation<double> gerg2008::phase::saturation_temperature<double>(
+    const gerg2008::Prepared<double>&, const double&, const gerg2008::phase::PhaseOptions&) noexcept;
+template gerg2008::phase::DewPoint<double> gerg2008::phase::dew_temperature<double>(
+    const gerg2008::Prepared<double>&, const double&, const gerg2008::phase::PhaseOptions&,
+    const gerg2008::phase::DewOptions&, const double*) noexcept;
+template gerg2008::phase::EnvelopeBounds<double> gerg2008::phase::envelope_bounds<double>(
+    const gerg2008::Prepared<double>&, const gerg2008::phase::PhaseOptions&, const gerg2008::phase::DewOptions&) noexcept;
+template gerg2008::phase::Cricondentherm<double> gerg2008::phase::cricondentherm<double>(
+    const gerg2008::Prepared<double>&, const gerg2008::phase::PhaseOptions&, const gerg2008::phase::DewOptions&,
+    double) noexcept;
+template Status gerg2008::phase::prepare_dry<double>(const Fractions<double>&, gerg2008::Prepared<double>&) noexcept;
 template double gerg2008::pressure_Pa<double>(const gerg2008::Prepared<double>&, const double&, const double&) noexcept;
 template sgerg88::Mixture<double> sgerg88::prepare<double>(const sgerg88::GrossInput<double>&,
                                                            const sgerg88::CharacterizationOptions&) noexcept;

@@ -1,8 +1,12 @@
 // zcorr evaluation layer: the AGA8 detail characterization method
 // (methods/detail.hpp) behind the LineMethod interface, in double.
+// The full analysis is also checked with the GERG-2008 phase test (eval/phase_check.hpp):
+// a state that test finds two-phase (or cannot decide) keeps the method's own status code
+// and Z, with the flag dew_point_suspected.
 #include <memory>
 
 #include "eval/line_method.hpp"
+#include "eval/phase_check.hpp"
 #include "methods/detail.hpp"
 
 namespace zcorr {
@@ -12,13 +16,21 @@ class DetailMethod final : public LineMethod {
  public:
   [[nodiscard]] MethodId id() const noexcept override { return MethodId::detail; }
 
-  Status prepare(const Fractions<double>& x) noexcept override { return aga8_detail::prepare(x, prepared_); }
+  Status prepare(const Fractions<double>& x) noexcept override {
+    const Status st = aga8_detail::prepare(x, prepared_);
+    if (st.ok()) (void)phase_.prepare(x);
+    return st;
+  }
 
   [[nodiscard]] StateOutput state(double T_K, double p_Pa, const EvalOptions& opt) const noexcept override {
     StateOutput out;
     const auto r = aga8_detail::evaluate(prepared_, T_K, p_Pa, opt.solve, opt.derived);
     out.status = r.status;
     out.iterations = r.iterations;
+    if (r.status.ok() && opt.phase_check) {
+      const auto v = phase_.check(T_K, p_Pa).verdict;
+      if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+    }
     const Code c = r.status.code;
     // Refused or invalid: no numbers. No convergence: the last iterate, as the status says.
     if (c != Code::ok && c != Code::no_convergence) return out;
@@ -38,6 +50,7 @@ class DetailMethod final : public LineMethod {
 
  private:
   aga8_detail::Prepared<double> prepared_{};
+  mutable PhaseCheck phase_{};
 };
 
 }  // namespace

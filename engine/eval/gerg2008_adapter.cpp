@@ -1,7 +1,14 @@
 // zcorr evaluation layer: GERG-2008 (engine/methods/gerg2008.hpp) behind LineMethod.
+//
+// A mixture state the density solver finds is also checked for phase stability
+// (eval/phase_check.hpp): a state the tangent-plane test finds two-phase gets
+// Code::two_phase and no Z; one the test cannot decide keeps its Z with the flag
+// dew_point_suspected. Pure fluids keep the solver's own rule (two_phase where the
+// denser root has the lower Gibbs energy, no_gas_root past the spinodal).
 #include <memory>
 
 #include "eval/line_method.hpp"
+#include "eval/phase_check.hpp"
 #include "methods/gerg2008.hpp"
 
 namespace zcorr {
@@ -11,13 +18,25 @@ class Gerg2008Method final : public LineMethod {
  public:
   [[nodiscard]] MethodId id() const noexcept override { return MethodId::gerg2008; }
 
-  Status prepare(const Fractions<double>& x) noexcept override { return gerg2008::prepare(x, prepared_); }
+  Status prepare(const Fractions<double>& x) noexcept override {
+    const Status st = gerg2008::prepare(x, prepared_);
+    if (st.ok()) (void)phase_.prepare(x);
+    return st;
+  }
 
   [[nodiscard]] StateOutput state(double T_K, double p_Pa, const EvalOptions& opt) const noexcept override {
     StateOutput out;
     const auto s = gerg2008::state(prepared_, T_K, p_Pa, opt.solve, opt.derived);
     out.status = s.status;
     out.iterations = s.iterations;
+    if (s.status.ok() && opt.phase_check) {
+      const auto pc = phase_.check(T_K, p_Pa);
+      if (pc.verdict == PhaseVerdict::two_phase) {
+        out.status.code = Code::two_phase;
+        return out;
+      }
+      if (pc.verdict == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+    }
     const bool usable = s.status.ok() || s.status.code == Code::no_convergence;
     if (!usable) return out;
     out[Quantity::Z] = s.Z;
@@ -41,6 +60,7 @@ class Gerg2008Method final : public LineMethod {
 
  private:
   gerg2008::Prepared<double> prepared_{};
+  mutable PhaseCheck phase_{};  // lazily cached cricondentherm of the prepared analysis
 };
 
 }  // namespace

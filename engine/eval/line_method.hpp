@@ -76,6 +76,9 @@ struct GrossInputs {
 struct EvalOptions {
   SolveOptions solve{};
   bool derived = false;  // also compute the derived properties (dZ/dp, w, kappa, ...)
+  // GERG-2008: test mixture states for phase stability (eval/phase_check.hpp); a two-phase
+  // state gets Code::two_phase and no Z. Off only for comparisons with the bare equation.
+  bool phase_check = true;
 };
 
 class LineMethod {

@@ -12,12 +12,15 @@
 // (methods/iso6976.hpp) at the same reference conditions, and takes the CO2,
 // N2 and H2 fractions from the analysis. The other components enter only
 // through Hs and d (they are lumped into the equivalent hydrocarbon and N2,
-// as the method does).
+// as the method does). With a full analysis the state is also checked with the GERG-2008
+// phase test (eval/phase_check.hpp): a state that test finds two-phase (or cannot decide)
+// keeps the method's own status code and Z, with the flag dew_point_suspected.
 #include <cmath>
 #include <memory>
 
 #include "core/units.hpp"
 #include "eval/line_method.hpp"
+#include "eval/phase_check.hpp"
 #include "methods/aga8_gross.hpp"
 #include "methods/iso6976.hpp"
 #include "methods/sgerg88.hpp"
@@ -61,7 +64,9 @@ class GrossLineMethod : public LineMethod {
     g.d = pr.d;
     Status carry;
     carry.flags = pr.status.flags;
-    return characterize(g, carry);
+    const Status st = characterize(g, carry);
+    if (st.ok()) (void)phase_.prepare(x);
+    return st;
   }
 
   [[nodiscard]] GrossInputs gross_inputs() const noexcept override { return ready_ ? inputs_ : GrossInputs{}; }
@@ -90,6 +95,10 @@ class GrossLineMethod : public LineMethod {
     out.status.flags |= carry_flags_;
     out.iterations = s.iterations;
     if (!s.status.ok()) return out;
+    if (from_composition_ && opt.phase_check) {
+      const auto v = phase_.check(T_K, p_Pa).verdict;
+      if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+    }
     const double rho = s.rho_mol_per_L;  // kmol/m3 = mol/L
     out[Quantity::Z] = s.Z;
     out[Quantity::rho_mol_per_L] = rho;
@@ -143,6 +152,7 @@ class GrossLineMethod : public LineMethod {
   std::uint16_t carry_flags_ = 0;
   bool ready_ = false;
   bool from_composition_ = false;
+  mutable PhaseCheck phase_{};  // with a full analysis only
 };
 
 }  // namespace

@@ -702,8 +702,9 @@ PhaseScanResult<S> scan_phases(const Prepared<S>& p, const TauCache<S>& c, const
 //   two_phase: a gas root exists but a denser root of the same composition has the
 //     lower Gibbs energy (the gas state is metastable: liquid or two-phase region);
 //   no_convergence: iteration cap reached (last iterate returned, flag iteration_cap).
-// Note: a stability (dew-point) analysis of mixtures is not performed; a
-// mixture state below its hydrocarbon dew point may return a metastable gas root.
+// Note: this function does not test mixtures for phase stability; a mixture state below
+// its hydrocarbon dew point may return a metastable gas root. The stability test is in
+// methods/gerg2008_phase.hpp and runs on every line state in eval/phase_check.hpp.
 template <class S>
 [[nodiscard]] Properties<S> state(const Prepared<S>& p, const S& T_K, const S& p_Pa, const SolveOptions& opt = {},
                                   bool derived = true) noexcept {

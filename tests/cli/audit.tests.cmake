@@ -51,6 +51,9 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
   # Held: the combustion reference stays 15 degC, and the energy moves only by the base-condition step.
   zcorr_cli_test(NAME audit_demo_what_if_hold ARGS audit --db ${DEMO_DB} --what-if-base-T "60 degF" --what-if-combustion-ref hold
                  MATCH "combustion reference 15 degC for every Hs \\(held as recorded\\)")
+  zcorr_cli_test(NAME audit_demo_what_if_tiny_base_p ARGS audit --db ${DEMO_DB} --what-if-base-p "1.01325e-300 bara" EXPECT_EXIT 2
+                 MATCH "what-if base pressure.*an absolute base pressure from 10 kPa to 1 MPa")
+  set_tests_properties(cli.audit_demo_what_if_tiny_base_p PROPERTIES DEPENDS cli.demo_week)
   zcorr_cli_test(NAME audit_demo_what_if_bad_combustion ARGS audit --db ${DEMO_DB} --what-if-combustion-ref 17 EXPECT_EXIT 2
                  MATCH "--what-if-combustion-ref.*0, 15, 15.55 \\(60 degF\\), 20 and 25 degC")
   zcorr_cli_test(NAME audit_demo_what_if_bad_analysis ARGS audit --db ${DEMO_DB} --what-if-analysis 3 EXPECT_EXIT 2

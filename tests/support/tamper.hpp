@@ -32,6 +32,17 @@ inline void exec_sql(sqlite3* db, const std::string& sql) {
   }
 }
 
+// The log file opened directly through SQLite (closed at scope end).
+struct OpenDb {
+  sqlite3* db = nullptr;
+  explicit OpenDb(const std::filesystem::path& file) {
+    if (sqlite3_open(file.string().c_str(), &db) != SQLITE_OK) throw std::runtime_error("cannot open " + file.string());
+  }
+  ~OpenDb() { sqlite3_close(db); }
+  OpenDb(const OpenDb&) = delete;
+  OpenDb& operator=(const OpenDb&) = delete;
+};
+
 // Drops every trigger (the no-update / no-delete guards) of the file.
 inline void drop_triggers(sqlite3* db) {
   std::vector<std::string> names;
@@ -121,12 +132,8 @@ inline void rehash_chain(sqlite3* db) {
 // 1 / Z_f), each register from its quantity as the recorder rounds it, the
 // quantity records summed again, and the chain re-hashed.
 inline void forge_consistent_Z_f(const std::filesystem::path& file, std::int64_t from, std::int64_t to, double factor) {
-  sqlite3* db = nullptr;
-  if (sqlite3_open(file.string().c_str(), &db) != SQLITE_OK) throw std::runtime_error("cannot open " + file.string());
-  struct Close {
-    sqlite3* db;
-    ~Close() { sqlite3_close(db); }
-  } close{db};
+  const OpenDb open(file);
+  sqlite3* db = open.db;
   drop_triggers(db);
   exec_sql(db, "BEGIN");
   std::vector<std::tuple<std::int64_t, double, double, double, double, double, double, double, double>> rows;
@@ -161,12 +168,8 @@ inline void forge_consistent_Z_f(const std::filesystem::path& file, std::int64_t
 // Changes the composition of a gas analysis record (methane for nitrogen by
 // `dx` mole fraction) and re-hashes the chain.
 inline void forge_analysis(const std::filesystem::path& file, std::int64_t analysis_seq, double dx) {
-  sqlite3* db = nullptr;
-  if (sqlite3_open(file.string().c_str(), &db) != SQLITE_OK) throw std::runtime_error("cannot open " + file.string());
-  struct Close {
-    sqlite3* db;
-    ~Close() { sqlite3_close(db); }
-  } close{db};
+  const OpenDb open(file);
+  sqlite3* db = open.db;
   drop_triggers(db);
   exec_sql(db, "BEGIN");
   exec_sql(db, "UPDATE gas_analysis SET x_methane = x_methane - " + std::to_string(dx) + ", x_nitrogen = x_nitrogen + " +
