@@ -17,7 +17,8 @@ BaseConditions BaseOptions::resolve() const {
   if (!T.empty() || !p.empty()) {
     if (T.empty() || p.empty()) throw io::InputError("--base-T/--base-p", T + "/" + p, "give both for custom base conditions");
     BaseConditions b{"custom", io::parse_temperature_K(T, "--base-T"), io::parse_pressure_Pa(p, "--base-p"), "custom"};
-    if (!(b.p_Pa > 0.0)) throw io::InputError("--base-p", p, "the base pressure must be > 0");
+    io::check_base_T(b.T_K, "--base-T");
+    io::check_base_p(b.p_Pa, "--base-p");
     return b;
   }
   const auto* b = find_base_preset(preset);

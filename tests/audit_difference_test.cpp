@@ -183,9 +183,11 @@ TEST(AuditDifference, QuantityRecordTotalHasItsOwnDifference) {
   {
     sqlite3* db = nullptr;
     ASSERT_EQ(sqlite3_open(file.string().c_str(), &db), SQLITE_OK);
-    testing::drop_triggers(db);
-    testing::exec_sql(db, "UPDATE qtr SET V_b_um3 = V_b_um3 + 12200000 WHERE seq = " + std::to_string(seq));
-    testing::rehash_chain(db);
+    {
+      const testing::TriggersAside aside(db);
+      testing::exec_sql(db, "UPDATE qtr SET V_b_um3 = V_b_um3 + 12200000 WHERE seq = " + std::to_string(seq));
+      testing::rehash_chain(db);
+    }
     sqlite3_close(db);
   }
   const auto r = audit_of(file);

@@ -149,7 +149,7 @@ TEST(EngineVersion, EveryNewRecordNamesItsEngineAndEncoding) {
   Log log(p, {OpenMode::read_only});
   const std::string ev = engine_version();
   auto n = [&](const std::string& sql) { return scalar(log.db(), sql); };
-  EXPECT_EQ(n("SELECT count(*) FROM log_header WHERE engine_version = '" + ev + "' AND hash_scheme = 'zcorr.record.v2/sha256'"), 1);
+  EXPECT_EQ(n("SELECT count(*) FROM log_header WHERE engine_version = '" + ev + "' AND hash_scheme = 'zcorr.record.v" + std::to_string(latest_encoding) + "/sha256'"), 1);
   EXPECT_EQ(n("SELECT count(*) FROM point_config WHERE engine_version = '" + ev + "'"), 1);
   EXPECT_EQ(n("SELECT count(*) FROM interval WHERE engine_version <> '" + ev + "'"), 0);
   EXPECT_EQ(n("SELECT count(*) FROM interval"), 60);
@@ -281,15 +281,16 @@ TEST(OldLog, AMixedLogVerifiesAndAuditsClean) {
     expect_clean(r.findings);
     EXPECT_EQ(r.per_encoding.size(), 2u);
     EXPECT_EQ(r.per_encoding.at(1), 131);
-    EXPECT_EQ(r.per_encoding.at(2), r.records - 131);
+    EXPECT_EQ(r.per_encoding.at(latest_encoding), r.records - 131);
     EXPECT_GE(r.records - 131, 61);  // 60 intervals, their hourly record, events
     EXPECT_EQ(r.created_by, old_engine);
   }
   // Records of both encodings, the old ones as they were.
   EXPECT_EQ(count(p, "SELECT count(*) FROM interval WHERE canon_version IS NULL AND engine_version = 'zcorr 0.1.0'"), 120);
-  EXPECT_EQ(count(p, "SELECT count(*) FROM interval WHERE canon_version = 2 AND engine_version = '" + std::string(engine_version()) + "'"),
+  EXPECT_EQ(count(p, "SELECT count(*) FROM interval WHERE canon_version = " + std::to_string(latest_encoding) + " AND engine_version = '" +
+                     std::string(engine_version()) + "'"),
             60);
-  EXPECT_GT(count(p, "SELECT count(*) FROM qtr WHERE canon_version = 2"), 0);
+  EXPECT_GT(count(p, "SELECT count(*) FROM qtr WHERE canon_version = " + std::to_string(latest_encoding)), 0);
   {
     const std::string after = dump_v1_records(p);
     // Every old record is still there, byte for byte (the dump lists them table by table).
@@ -353,8 +354,9 @@ TEST(RecordEncoding, AValueInAColumnItsEncodingDoesNotCoverBreaksTheChain) {
 TEST(RecordEncoding, ARecordClaimingAnotherEncodingBreaksTheChain) {
   const auto p = recorded_test_gas_log("claims");
   const auto iv = count(p, "SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 7");
-  // A record of encoding 2 that says 1 (NULL), or names a version this log cannot hold.
-  for (const char* claim : {"NULL", "3", "99"}) {
+  // A record of the latest encoding that says 1 (NULL) or 2, or names a version this log cannot hold.
+  static_assert(latest_encoding == 3, "claim the versions around the latest one");
+  for (const char* claim : {"NULL", "2", "4", "99"}) {
     SCOPED_TRACE(claim);
     const auto c = tampered_copy(p, "claims_copy", "DROP TRIGGER interval_no_update; UPDATE interval SET canon_version = " +
                                                         std::string(claim) + " WHERE seq = " + std::to_string(iv));

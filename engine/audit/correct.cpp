@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "io/input_error.hpp"
+#include "io/units_parse.hpp"
 #include "record/canonical.hpp"
 #include "record/interval_calc.hpp"
 #include "record/sql.hpp"
@@ -66,10 +67,8 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
     throw io::InputError("correction", "no change", "at least one of --method, --base-T, --base-p, --analysis");
   if (req.change.method && !(methods ? methods(*req.change.method) : nullptr))
     throw io::InputError("--method", *req.change.method, "a line method of this build (zcorr z --help lists them)");
-  if (req.change.base_T_K && !(*req.change.base_T_K > 0 && std::isfinite(*req.change.base_T_K)))
-    throw io::InputError("--base-T", num(*req.change.base_T_K), "a temperature above 0 K");
-  if (req.change.base_p_Pa && !(*req.change.base_p_Pa > 0 && std::isfinite(*req.change.base_p_Pa)))
-    throw io::InputError("--base-p", num(*req.change.base_p_Pa), "an absolute pressure above 0 Pa");
+  if (req.change.base_T_K) io::check_base_T(*req.change.base_T_K, "--base-T");
+  if (req.change.base_p_Pa) io::check_base_p(*req.change.base_p_Pa, "--base-p");
   if (!std::filesystem::exists(file)) throw io::InputError("--db", file.string(), "an existing interval log");
 
   // The writer first (it upgrades the schema), then a reader for the replay:

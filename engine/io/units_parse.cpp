@@ -152,4 +152,14 @@ double parse_energy_J(std::string_view text, std::string_view field) {
   return e;
 }
 
+void check_base_T(double T_K, std::string_view field) {
+  if (!(std::isfinite(T_K) && T_K >= 200.0 && T_K <= 400.0))
+    throw InputError(std::string(field), format_sig(T_K, 8) + " K", "a base temperature from 200 K to 400 K");
+}
+
+void check_base_p(double p_Pa, std::string_view field) {
+  if (!(std::isfinite(p_Pa) && p_Pa >= 1e4 && p_Pa <= 1e6))
+    throw InputError(std::string(field), format_sig(p_Pa, 8) + " Pa", "an absolute base pressure from 10 kPa to 1 MPa");
+}
+
 }  // namespace zcorr::io

@@ -39,4 +39,11 @@ inline constexpr double max_volume_m3 = 1e15;
 [[nodiscard]] std::optional<double> volume_unit_m3(std::string_view unit) noexcept;
 [[nodiscard]] std::optional<double> energy_unit_J(std::string_view unit) noexcept;
 
+// Base conditions a contract can name: base_T from 200 K to 400 K, base_p from
+// 10 kPa to 1 MPa absolute (our own bounds, wide around every preset's
+// 0-20 degC / 60 degF and 101-102 kPa: common practice). Throw InputError
+// naming `field` otherwise (non-finite values included).
+void check_base_T(double T_K, std::string_view field);
+void check_base_p(double p_Pa, std::string_view field);
+
 }  // namespace zcorr::io

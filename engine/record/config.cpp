@@ -67,13 +67,6 @@ E pick(std::string_view field, std::string_view v, std::initializer_list<std::pa
 
 }  // namespace
 
-void check_base_conditions(double T_K, double p_Pa, std::string_view field_T, std::string_view field_p) {
-  if (!(std::isfinite(T_K) && T_K >= 200.0 && T_K <= 400.0))
-    throw io::InputError(std::string(field_T), io::format_sig(T_K, 8) + " K", "a base temperature between 200 K and 400 K");
-  if (!(std::isfinite(p_Pa) && p_Pa >= 10e3 && p_Pa <= 1e6))
-    throw io::InputError(std::string(field_p), io::format_sig(p_Pa, 8) + " Pa", "a base pressure between 10 kPa and 1 MPa, absolute");
-}
-
 void check_identifier(std::string_view s, std::string_view field) {
   std::size_t i = 0;
   while (i < s.size()) {
@@ -180,20 +173,30 @@ PointConfig parse_point_config(std::string_view text, std::string_view source) {
       if (!io::energy_unit_J(val)) throw io::InputError(field, val, "an energy unit: MJ, GJ, kWh, MWh, MMBtu, therm");
       c.energy_unit = val;
     } else if (key == "note") c.note = val;
-    else throw io::InputError(where, key, "unknown key (see the point configuration format in `zcorr record --help`)");
+    else if (key == "max_flow") {
+      std::string_view v = val;
+      if (v.ends_with("m3/h")) v = io::trim(v.substr(0, v.size() - 4));
+      const double f = io::parse_number(v, field);
+      if (!(f > 0 && f <= 1e9)) throw io::InputError(field, val, "a flow rate above 0 and at most 1e9 m3/h");
+      c.max_flow_m3_per_h = f;
+    } else throw io::InputError(where, key, "unknown key (see the point configuration format in `zcorr record --help`)");
   }
   const std::string src(source);
   if (c.point.empty()) throw io::InputError(src, "point", "the configuration must name the point");
   check_identifier(c.point, src + " point");
-  check_base_conditions(c.base_T_K, c.base_p_Pa, src + " base_T", src + " base_p");
   if (c.method.empty()) throw io::InputError(src, "method", "the configuration must name the method");
   if (have_base && (have_base_T || have_base_p)) throw io::InputError(src, "base", "give either base or base_T and base_p");
   if (have_base_T != have_base_p) throw io::InputError(src, "base_T/base_p", "give both base_T and base_p");
   if (!have_base && !have_base_T) throw io::InputError(src, "base", "the configuration must state the base conditions");
+  io::check_base_T(c.base_T_K, src + " base_T");
+  io::check_base_p(c.base_p_Pa, src + " base_p");
   if (!(have[0] && have[1] && have[2] && have[3]))
     throw io::InputError(src, "p_min/p_max/T_min/T_max", "state the valid pressure and temperature ranges");
   if (!(c.p_min_Pa < c.p_max_Pa) || !(c.T_min_K < c.T_max_K)) throw io::InputError(src, "ranges", "min must be below max");
-  if (c.pulses && !(c.k_factor_per_m3 > 0)) throw io::InputError(src, "k_factor", "meter = pulses needs a positive k_factor");
+  if (!(c.p_min_Pa > 0) || !(c.T_min_K > 0) || !std::isfinite(c.p_max_Pa) || !std::isfinite(c.T_max_K))
+    throw io::InputError(src, "p_min/T_min", "the valid ranges must be above 0 Pa and 0 K, absolute, and finite");
+  if (c.pulses && !(c.k_factor_per_m3 > 0 && c.k_factor_per_m3 <= 1e9))
+    throw io::InputError(src, "k_factor", "meter = pulses needs a k_factor above 0 and at most 1e9 pulses per m3");
   if (!(c.meter_factor > 0.5 && c.meter_factor < 1.5)) throw io::InputError(src, "meter_factor", "between 0.5 and 1.5");
   if (!(c.atm_p_Pa > 50e3 && c.atm_p_Pa < 110e3)) throw io::InputError(src, "atm", "between 50 kPa and 110 kPa");
   return c;

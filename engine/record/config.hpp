@@ -49,9 +49,6 @@ enum class Integration { per_sample, average_then_correct };
 
 inline constexpr double default_max_flow_m3_per_h = 1e6;
 
-// Throws io::InputError naming `field` when base conditions are impossible
-// (non-finite, base_T outside 200..400 K, base_p outside 10 kPa..1 MPa).
-void check_base_conditions(double T_K, double p_Pa, std::string_view field_T, std::string_view field_p);
 // Throws io::InputError naming `field` when `s` is not valid UTF-8 or holds a control character.
 void check_identifier(std::string_view s, std::string_view field);
 

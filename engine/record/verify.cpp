@@ -6,6 +6,10 @@
 #include <cstring>
 #include <optional>
 
+#include "io/text.hpp"
+#include "record/checked.hpp"
+#include "record/interval_calc.hpp"
+
 namespace zcorr::record {
 namespace {
 
@@ -112,23 +116,6 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     if (out.findings.size() < max_findings)
       out.findings.push_back({std::string(table_info(r.table).name), r.seq, row_time(r), std::move(kind), std::move(detail), dV, dE});
   };
-
-  // The no-update / no-delete triggers of every table the log has: a missing one is a finding.
-  for (std::size_t t = 0; t < table_count; ++t) {
-    if (!has_table(out.schema_version, static_cast<Table>(t))) continue;
-    for (const char* what : {"_no_update", "_no_delete"}) {
-      const std::string name = std::string(tables[t].name) + what;
-      Stmt trig(db, "SELECT 1 FROM sqlite_schema WHERE type = 'trigger' AND name = ?");
-      trig.bind(1, std::string_view(name));
-      if (!trig.step()) {
-        ++out.findings_total;
-        if (out.findings.size() < max_findings)
-          out.findings.push_back({std::string(tables[t].name), 0, 0, "missing_trigger",
-                                  "the trigger " + name + " is missing: the table's records can be changed in place", std::nullopt,
-                                  std::nullopt});
-      }
-    }
-  }
 
   std::vector<Cursor> cursors;
   for (std::size_t t = 0; t < table_count; ++t) {
@@ -255,13 +242,15 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
         if (v && !(std::isfinite(*v) && *v >= 0 && *v < 1e15 * 1e3))
           report(r, "impossible_value", std::string(ic[k]) + " = " + io::format_sig(*v, 6) + ": not a finite, non-negative quantity a register holds");
       }
-      for (const std::int64_t reg : {vf, vb, vx, e, m})
-        if (reg < 0 || static_cast<double>(reg) >= register_limit) {
-          report(r, "impossible_value", "a register (V_f_um3, V_b_um3, V_fault_um3, E_J, mass_mg) is negative or beyond the register range");
-          break;
-        }
-      const std::int64_t dvb = q(as_f64(r.values[i_vb]), volume_quantum_m3) - vb, de = q(as_f64(r.values[i_e]), 1e-6) - e;
-      if (q(as_f64(r.values[i_vf]), volume_quantum_m3) != vf)
+      bool bad_register = false;
+      for (const std::int64_t reg : {vf, vb, vx, e, m}) bad_register |= reg < 0 || static_cast<double>(reg) > register_limit;
+      if (bad_register)
+        report(r, "impossible_value", "a register (V_f_um3, V_b_um3, V_fault_um3, E_J, mass_mg) is negative or beyond the register range");
+      const std::int64_t dvb = bad_register ? 0 : q(as_f64(r.values[i_vb]), volume_quantum_m3) - vb,
+                         de = bad_register ? 0 : q(as_f64(r.values[i_e]), 1e-6) - e;
+      if (bad_register) {
+        // reported above; the comparisons below would overflow
+      } else if (q(as_f64(r.values[i_vf]), volume_quantum_m3) != vf)
         report(r, "register_mismatch", "V_f_um3 does not equal V_f_m3 at 1e-6 m3", dvb, de);
       else if (dvb != 0)
         report(r, "register_mismatch", "V_b_um3 does not equal V_b_m3 at 1e-6 m3", dvb, de);
@@ -415,6 +404,23 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       out.findings.push_back({"interval", set_sums.first, 0, "bad_correction",
                               std::to_string(set_sums.n) + " correcting interval(s) from seq " + std::to_string(set_sums.first) +
                                   " on belong to no correction set (a set is written last, with its records)", {}, {}});
+  }
+  // The no-update / no-delete triggers of every table the log has: a missing one is a finding
+  // (after the records: a record changed while they were gone is the finding that names a row).
+  for (std::size_t t = 0; t < table_count; ++t) {
+    if (!has_table(out.schema_version, static_cast<Table>(t))) continue;
+    for (const char* what : {"_no_update", "_no_delete"}) {
+      const std::string name = std::string(tables[t].name) + what;
+      Stmt trig(db, "SELECT 1 FROM sqlite_schema WHERE type = 'trigger' AND name = ?");
+      trig.bind(1, std::string_view(name));
+      if (!trig.step()) {
+        ++out.findings_total;
+        if (out.findings.size() < max_findings)
+          out.findings.push_back({std::string(tables[t].name), 0, 0, "missing_trigger",
+                                  "the trigger " + name + " is missing: the table's records can be changed in place", std::nullopt,
+                                  std::nullopt});
+      }
+    }
   }
   if (out.records == 0) {
     ++out.findings_total;

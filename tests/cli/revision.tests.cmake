@@ -36,7 +36,7 @@ encoding  zcorr\.record\.v1 131; log created by zcorr 0\.1\.0 \(revision unknown
                        DEPENDS cli.revision_old_still_schema_3)
   zcorr_cli_test(NAME revision_mixed_verify ARGS verify --db ${REV_DIR}/old.db
                  MATCH "schema [0-9]+, .*
-encoding  zcorr\.record\.v1 131, zcorr\.record\.v2 [0-9]+; log created by zcorr 0\.1\.0 \(revision unknown\)
+encoding  zcorr\.record\.v1 131, zcorr\.record\.v[0-9]+ [0-9]+; log created by zcorr 0\.1\.0 \(revision unknown\)
 .*result    clean")
   zcorr_cli_test(NAME revision_mixed_audit ARGS audit --db ${REV_DIR}/old.db
                  MATCH "\nwritten by zcorr 0\\.1\\.0 \\(revision unknown\\): 120 interval\\(s\\); zcorr [0-9.]+ \\(revision [^)]+\\): 60 interval\\(s\\)\nreplayed   by .*another engine version.*nothing found")

@@ -3,6 +3,7 @@
 // record layer with the test-double method.
 #pragma once
 
+#include <sqlite3.h>
 #include <unistd.h>
 
 #include <cmath>
@@ -10,6 +11,8 @@
 #include <fstream>
 #include <sstream>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "record/config.hpp"
 #include "record/input.hpp"
@@ -90,9 +93,50 @@ inline std::int64_t scalar(sqlite3* db, const std::string& sql) {
   return s.step() ? s.i64(0) : -1;
 }
 
-inline int run_shell(const std::filesystem::path& db, const std::string& sql) {
+// Runs `sql` on the file through the sqlite3 shell, as someone editing a log
+// behind zcorr's back would. A careful forger puts back the no-update /
+// no-delete triggers the edit needed to drop: by default so does this (pass
+// restore_triggers = false to leave them dropped), so a test of the chain is
+// not helped by the verifier's check of the triggers.
+inline int run_shell(const std::filesystem::path& db, const std::string& sql, bool restore_triggers = true) {
+  std::vector<std::pair<std::string, std::string>> triggers;  // name, CREATE statement
+  auto open = [&] {
+    sqlite3* h = nullptr;
+    if (sqlite3_open(db.c_str(), &h) != SQLITE_OK) {
+      sqlite3_close(h);
+      return static_cast<sqlite3*>(nullptr);
+    }
+    return h;
+  };
+  if (restore_triggers) {
+    if (sqlite3* h = open()) {
+      sqlite3_stmt* st = nullptr;
+      if (sqlite3_prepare_v2(h, "SELECT name, sql FROM sqlite_schema WHERE type = 'trigger'", -1, &st, nullptr) == SQLITE_OK)
+        while (sqlite3_step(st) == SQLITE_ROW)
+          triggers.emplace_back(reinterpret_cast<const char*>(sqlite3_column_text(st, 0)),
+                                reinterpret_cast<const char*>(sqlite3_column_text(st, 1)));
+      sqlite3_finalize(st);
+      sqlite3_close(h);
+    }
+  }
   const std::string cmd = "sqlite3 '" + db.string() + "' \"" + sql + "\" >/dev/null 2>&1";
-  return std::system(cmd.c_str());
+  const int rc = std::system(cmd.c_str());
+  if (!triggers.empty()) {
+    if (sqlite3* h = open()) {
+      for (const auto& [name, create] : triggers) {
+        sqlite3_stmt* st = nullptr;
+        bool present = false;
+        if (sqlite3_prepare_v2(h, "SELECT 1 FROM sqlite_schema WHERE type = 'trigger' AND name = ?", -1, &st, nullptr) == SQLITE_OK) {
+          sqlite3_bind_text(st, 1, name.c_str(), -1, SQLITE_TRANSIENT);
+          present = sqlite3_step(st) == SQLITE_ROW;
+        }
+        sqlite3_finalize(st);
+        if (!present) sqlite3_exec(h, create.c_str(), nullptr, nullptr, nullptr);
+      }
+      sqlite3_close(h);
+    }
+  }
+  return rc;
 }
 
 }  // namespace zcorr::testing

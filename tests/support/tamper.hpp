@@ -43,15 +43,33 @@ struct OpenDb {
   OpenDb& operator=(const OpenDb&) = delete;
 };
 
-// Drops every trigger (the no-update / no-delete guards) of the file.
-inline void drop_triggers(sqlite3* db) {
-  std::vector<std::string> names;
+// Drops every trigger (the no-update / no-delete guards) of the file and
+// returns their CREATE statements.
+inline std::vector<std::string> drop_triggers(sqlite3* db) {
+  std::vector<std::string> names, creates;
   {
-    record::Stmt s(db, "SELECT name FROM sqlite_master WHERE type = 'trigger'");
-    while (s.step()) names.push_back(s.text(0));
+    record::Stmt s(db, "SELECT name, sql FROM sqlite_master WHERE type = 'trigger'");
+    while (s.step()) {
+      names.push_back(s.text(0));
+      creates.push_back(s.text(1));
+    }
   }
   for (const auto& n : names) exec_sql(db, "DROP TRIGGER " + n);
+  return creates;
 }
+
+// The triggers set aside for an edit and put back after it, as a careful
+// forger would (the verifier reports a missing trigger on its own).
+struct TriggersAside {
+  sqlite3* db;
+  std::vector<std::string> creates;
+  explicit TriggersAside(sqlite3* d) : db(d), creates(drop_triggers(d)) {}
+  ~TriggersAside() {
+    for (const auto& c : creates) sqlite3_exec(db, c.c_str(), nullptr, nullptr, nullptr);
+  }
+  TriggersAside(const TriggersAside&) = delete;
+  TriggersAside& operator=(const TriggersAside&) = delete;
+};
 
 // Sums every quantity transaction record again from the intervals (period
 // totals over the intervals inside its period, register readings over the
@@ -134,7 +152,7 @@ inline void rehash_chain(sqlite3* db) {
 inline void forge_consistent_Z_f(const std::filesystem::path& file, std::int64_t from, std::int64_t to, double factor) {
   const OpenDb open(file);
   sqlite3* db = open.db;
-  drop_triggers(db);
+  const TriggersAside aside(db);
   exec_sql(db, "BEGIN");
   std::vector<std::tuple<std::int64_t, double, double, double, double, double, double, double, double>> rows;
   {
@@ -170,7 +188,7 @@ inline void forge_consistent_Z_f(const std::filesystem::path& file, std::int64_t
 inline void forge_analysis(const std::filesystem::path& file, std::int64_t analysis_seq, double dx) {
   const OpenDb open(file);
   sqlite3* db = open.db;
-  drop_triggers(db);
+  const TriggersAside aside(db);
   exec_sql(db, "BEGIN");
   exec_sql(db, "UPDATE gas_analysis SET x_methane = x_methane - " + std::to_string(dx) + ", x_nitrogen = x_nitrogen + " +
                    std::to_string(dx) + " WHERE seq = " + std::to_string(analysis_seq));
