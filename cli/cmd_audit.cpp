@@ -259,7 +259,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
                                          {"V_b_m3_logged", iv.V_b_m3}, {"V_b_m3_replayed", rp.V_b_m3},
                                          {"V_b_difference_ppm", json_or_null(rp.dV_b_ppm)}, {"estimated", rp.estimated},
                                          {"worst_ppm", json_num(rp.worst_ppm())}});
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else if (o.format == Format::csv) {
     std::cout << "kind,severity,point,from,to,intervals,first_seq,last_seq,V_b_m3_affected,E_MJ_affected,V_b_m3_difference,"
                  "E_MJ_difference,V_b_difference_ppm,difference_estimated,worst_ppm,alarm_time_s,V_fault_m3,difference_basis,detail\n";

@@ -108,7 +108,7 @@ int run_convert(const ConvertOptions& o) {
     if (!std::isnan(c.mass_kg)) j["mass_kg"] = c.mass_kg;
     j["status"] = status_text(c.status);
     if (comp) j["composition_provenance"] = comp->provenance();
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
     return exit_ok;
   }
   if (o.format == Format::csv) {

@@ -104,7 +104,7 @@ int run_single(const DewOptionsCli& o) {
       j["envelope_status"] = env.status.ok() ? (env.found ? "ok" : "no_dew_point") : status_text(env.status);
     }
     j["caution"] = caution_text;
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else {
     std::cout << "method   " << o.method << " (phase equilibrium of the water-free gas)\n"
               << "gas      " << comp.provenance() << (water ? "; water excluded (the water dew point is not assessed)" : "")

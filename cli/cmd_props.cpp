@@ -103,7 +103,7 @@ int run_props(const PropsOptions& o) {
     j["doubtful_rows"] = arr;
     j["doubtful_constants"] = ctext;
     j["caution"] = caution_line;
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else if (o.format == Format::csv) {
     std::vector<std::string> head{"combustion_ref_C", "metering_ref_C", "metering_p_kPa"};
     std::vector<std::string> row{t1s, t2s, io::format_number(p2 / 1000.0)};

@@ -60,7 +60,7 @@ int run_quantities(const QuantitiesOptions& o) {
       for (std::size_t i = 0; i < head.size(); ++i) r[head[i]] = f[i];
       j.push_back(r);
     }
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else {
     std::cout << (o.period == "day" ? "Daily" : "Hourly") << " quantity transaction records, " << o.db << '\n';
     std::cout << std::left << std::setw(12) << "point" << std::setw(12) << (o.period == "day" ? "day" : "hour from") << std::right

@@ -89,7 +89,7 @@ int run_record(const RecordCliOptions& o) {
     j["last_interval_end"] = st.last_end_utc_s ? format_time_utc(st.last_end_utc_s) : "";
     j["head_seq"] = log.head_seq();
     j["head_hash"] = to_hex(log.head_hash());
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else {
     std::cout << "zcorr record: point " << cfg.point << " -> " << o.db << '\n'
               << "  rows read          " << st.rows << " (" << st.skipped << " already recorded, skipped)\n"
@@ -135,10 +135,14 @@ void setup_record(CLI::App& app, int& exit_code) {
       "  pressure (absolute | gauge), meter (volume | pulses), k_factor, meter_factor, interval (s),\n"
       "  contract_hour, utc_offset, averaging (time_linear | flow_linear | time_formulaic | flow_formulaic),\n"
       "  integration (per_sample | average_then_correct), p_min, p_max, T_min, T_max, volume_unit,\n"
-      "  energy_unit, note\n"
+      "  energy_unit, max_flow (m3/h after the meter factor, default 1e6), note\n"
+      "Refused (exit 2, field named): base_T outside 200..400 K, base_p outside 10 kPa..1 MPa, p_min or\n"
+      "T_min not above 0, a point id that is not UTF-8 text, max_flow not in (0, 1e9] m3/h.\n"
       "Each sample row closes a sub-period begun at the previous row; intervals are aligned to multiples\n"
       "of the interval length. A reading outside [p_min, p_max] or [T_min, T_max], or unreadable, stops\n"
       "the converted register for that row (its volume goes to the fault register) and is an alarm event.\n"
+      "A row whose volume is above max_flow over the time it covers is an alarm too; its volume enters\n"
+      "no register. Registers saturate at their limit (flag overflow), never wrap.\n"
       "Running again on overlapping input resumes after the last recorded interval.\n"
       "\nExample:\n  zcorr record --db station.db --config point.conf --samples day1.csv --analyses gc.csv\n");
   sub->callback([opt, &exit_code] { exit_code = guarded("record", [&] { return run_record(*opt); }); });

@@ -272,7 +272,7 @@ int run_export(const ExportOptions& o) {
     j["method"] = mo.method;
     j["base"] = {{"name", std::string(base.name)}, {"T_K", base.T_K}, {"p_kPa", base.p_Pa / 1000.0}};
     j["analyses"] = rep.compositions;
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else if (o.format == Format::csv) {
     print_csv(rep, "time", "recomputed");
   } else {
@@ -332,7 +332,7 @@ int run_answers(const AnswersOptions& o) {
     j["caution"] = caution_line;
     j["file"] = o.file;
     j["expected_recomputed"] = rep.expected_checked;
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else if (o.format == Format::csv) {
     print_csv(rep, "point", "expected");
   } else {

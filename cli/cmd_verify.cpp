@@ -51,7 +51,7 @@ int run_verify(const VerifyOptions& o) {
     for (const auto& f : r.findings)
       j["findings"].push_back({{"table", f.table}, {"seq", f.seq}, {"time", f.time_utc_s ? format_time_utc(f.time_utc_s) : ""},
                                {"kind", f.kind}, {"detail", f.detail}});
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else {
     std::cout << "log       " << o.db << " (schema " << r.schema_version << ", id " << r.log_id << ")\n"
               << "records   " << r.records << " (";

@@ -116,7 +116,7 @@ int run_single(const ZOptions& o) {
     j["status"] = status_text(out.status);
     j["range"] = range_name(out.status.range);
     j["iterations"] = out.iterations;
-    std::cout << j.dump(2) << '\n';
+    std::cout << json_text(j) << '\n';
   } else if (o.format == Format::csv) {
     std::vector<std::string> head{"T_K", "P_kPa"}, row{io::format_number(T), io::format_number(p / 1000.0)};
     for (std::size_t i = 0; i < out.q.size(); ++i)

@@ -4,6 +4,7 @@
 
 #include "core/components.hpp"
 #include "io/input_error.hpp"
+#include "io/text.hpp"
 #include "io/status_text.hpp"
 #include "record/timeutil.hpp"
 
@@ -57,8 +58,8 @@ int guarded(const char* command, const std::function<int()>& body) {
   } catch (const io::InputError& e) {
     std::cerr << "zcorr " << command << ": " << e.what() << '\n';
     return exit_unusable;
-  } catch (const std::exception& e) {
-    std::cerr << "zcorr " << command << ": " << e.what() << '\n';
+  } catch (const std::exception& e) {  // one line whatever the message holds
+    std::cerr << "zcorr " << command << ": " << io::printable(e.what(), 1000) << '\n';
     return exit_unusable;
   }
 }

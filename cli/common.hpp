@@ -3,6 +3,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <nlohmann/json.hpp>
 
 #include <cstdint>
 #include <iosfwd>
@@ -29,6 +30,13 @@ inline constexpr const char* caution_text =
 
 // The one-line form, last line of every human-readable output (and a
 // `caution` field in JSON objects).
+// JSON output as text, indented: a string that is not valid UTF-8 (a value
+// logged from a file) has its bad bytes replaced by U+FFFD, so the output is
+// always valid JSON and never fails after the work is done.
+[[nodiscard]] inline std::string json_text(const nlohmann::json& j) {
+  return j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace);
+}
+
 inline constexpr const char* caution_line =
     "CAUTION: check every result against the contract, local legal-metrology rules and licensed measurement practice before relying on it.";
 

@@ -1,11 +1,14 @@
 // zcorr input layer: the one error type for bad input.
 //
 // Everything in engine/io may throw InputError; the CLI turns it into a
-// one-line message and exit code 2. The engine core never throws.
+// one-line message and exit code 2 (what() is always one line of valid
+// UTF-8; field(), value() and allowed() keep what was given). The engine core never throws.
 #pragma once
 
 #include <stdexcept>
 #include <string>
+
+#include "io/text.hpp"
 
 namespace zcorr::io {
 
@@ -21,7 +24,9 @@ class InputError : public std::runtime_error {
 
  private:
   static std::string compose(const std::string& f, const std::string& v, const std::string& a) {
-    return f + ": '" + v + "' is not accepted; " + a;
+    // One line whatever was given: the value cut to io::shown_value_bytes,
+    // control characters and bytes that are not UTF-8 escaped.
+    return printable(f, 200) + ": '" + printable(v) + "' is not accepted; " + printable(a, 400);
   }
   std::string field_, value_, allowed_;
 };

@@ -68,33 +68,9 @@ E pick(std::string_view field, std::string_view v, std::initializer_list<std::pa
 }  // namespace
 
 void check_identifier(std::string_view s, std::string_view field) {
-  std::size_t i = 0;
-  while (i < s.size()) {
-    const auto c = static_cast<unsigned char>(s[i]);
-    std::size_t n = c < 0x80 ? 1 : (c >> 5) == 6 ? 2 : (c >> 4) == 14 ? 3 : (c >> 3) == 30 ? 4 : 0;
-    bool ok = n > 0 && i + n <= s.size() && !(c < 0x20 || c == 0x7f) && !(c == 0xc0 || c == 0xc1 || c > 0xf4);
-    std::uint32_t cp = n == 1 ? c : n == 2 ? (c & 0x1f) : n == 3 ? (c & 0x0f) : (c & 0x07);
-    for (std::size_t k = 1; ok && k < n; ++k) {
-      const auto d = static_cast<unsigned char>(s[i + k]);
-      ok = (d & 0xc0) == 0x80;
-      cp = (cp << 6) | (d & 0x3f);
-    }
-    if (ok && n > 1) ok = !(n == 3 && cp < 0x800) && !(n == 4 && (cp < 0x10000 || cp > 0x10ffff)) && !(cp >= 0xd800 && cp <= 0xdfff);
-    if (!ok) {
-      std::string shown;
-      for (unsigned char ch : s.substr(0, 64)) {
-        if (ch >= 0x20 && ch < 0x7f) shown += static_cast<char>(ch);
-        else {
-          static const char* hex = "0123456789abcdef";
-          shown += "\\x";
-          shown += hex[ch >> 4];
-          shown += hex[ch & 15];
-        }
-      }
-      throw io::InputError(std::string(field), shown, "valid UTF-8 text without control characters");
-    }
-    i += n;
-  }
+  bool ok = io::valid_utf8(s);
+  for (const char c : s) ok = ok && !(static_cast<unsigned char>(c) < 0x20 || c == 0x7f);
+  if (!ok) throw io::InputError(std::string(field), std::string(s), "valid UTF-8 text without control characters");
 }
 
 PointConfig parse_point_config(std::string_view text, std::string_view source) {
@@ -136,8 +112,9 @@ PointConfig parse_point_config(std::string_view text, std::string_view source) {
       std::string_view v = val;
       if (v.ends_with("s")) v = io::trim(v.substr(0, v.size() - 1));
       const double s = io::parse_number(v, field);
-      if (!(s >= 1 && s <= 86400 && s == std::floor(s) && 86400 % static_cast<std::int64_t>(s) == 0))
-        throw io::InputError(field, val, "a whole number of seconds dividing 86400 (e.g. 60, 300, 900, 3600)");
+      // At most an hour: every hourly quantity transaction record closes on whole intervals.
+      if (!(s >= 1 && s <= 3600 && s == std::floor(s) && 3600 % static_cast<std::int64_t>(s) == 0))
+        throw io::InputError(field, val, "a whole number of seconds dividing 3600 (e.g. 10, 60, 300, 900, 3600)");
       c.interval_s = static_cast<std::int64_t>(s);
     } else if (key == "contract_hour") {
       const double h = io::parse_number(val, field);

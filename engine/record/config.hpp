@@ -13,7 +13,7 @@
 //   meter          = volume | pulses       V increments or pulse counts (default volume)
 //   k_factor       = pulses per m3 of indicated volume (meter = pulses), e.g. "1000"
 //   meter_factor   = dimensionless, default 1
-//   interval       = interval length in s, dividing 86400 (default 60)
+//   interval       = interval length in s, dividing 3600 (default 60; the hourly records close on whole intervals)
 //   contract_hour  = 0..23 local hour the contract day starts (default 6)
 //   utc_offset     = local clock offset, "+01:00" or minutes (default 0; no daylight saving)
 //   averaging      = time_linear | flow_linear | time_formulaic | flow_formulaic (default flow_linear)
@@ -22,7 +22,9 @@
 //   T_min, T_max   = valid line temperature range (required), e.g. "-10 degC", "50 degC"
 //   max_flow       = the largest indicated flow rate the meter passes, m3/h after the meter factor
 //                    (default 1e6, above the largest gas meters in use; common practice);
-//                    a sample increment above max_flow * interval / 3600 is bad input, never a register
+//                    a sample whose increment is above max_flow over the time it covers (the interval,
+//                    or the time since the previous sample when longer) is an alarm of its interval
+//                    (event bad_input, flags bad_input + alarm) and enters no register
 //   volume_unit    = m3 | ft3 | Mcf for reports (default m3)
 //   energy_unit    = MJ | GJ | kWh | MWh | MMBtu | therm for reports (default MJ)
 //   note           = free text
@@ -74,10 +76,6 @@ struct PointConfig {
   std::string note;
   double max_flow_m3_per_h = default_max_flow_m3_per_h;
 
-  // The largest volume increment (m3, after the meter factor) one sample may bring.
-  [[nodiscard]] double max_volume_per_interval_m3() const noexcept {
-    return max_flow_m3_per_h * static_cast<double>(interval_s) / 3600.0;
-  }
 
   // Names of the settings that differ (empty: the same configuration).
   [[nodiscard]] std::vector<std::string> differences(const PointConfig& o) const;

@@ -1,5 +1,7 @@
 #include "record/recorder.hpp"
 
+#include <limits>
+
 #include <algorithm>
 #include <cmath>
 
@@ -233,15 +235,20 @@ void Recorder::add_sample(const RawSample& raw) {
               format_time_utc(cur_start_),
           raw.line);
   }
-  // A volume no meter of this point can pass in one interval is bad input: it enters no register.
+  // A volume no meter of this point can pass in the time the sample covers
+  // (max_flow over the interval, or over the time since the previous sample
+  // when that is longer: a gap) is impossible: an alarm of its interval, and
+  // its volume enters no register.
   const double dV_m3 = (cfg_.pulses ? static_cast<double>(raw.pulses) / cfg_.k_factor_per_m3 : raw.V_ind_m3) * cfg_.meter_factor;
-  if (!(dV_m3 <= cfg_.max_volume_per_interval_m3())) {
+  const std::int64_t covered_s = std::max<std::int64_t>(cfg_.interval_s, prev_t_ == INT64_MIN ? 0 : raw.t_utc_s - prev_t_);
+  const double dV_max_m3 = cfg_.max_flow_m3_per_h * static_cast<double>(covered_s) / 3600.0;
+  if (!(dV_m3 <= dV_max_m3)) {
     ++stats_.bad_rows;
-    cur_flags_ |= iflag::bad_input;
-    event(raw.t_utc_s, "bad_input", "warning",
+    cur_flags_ |= iflag::bad_input | iflag::alarm;
+    event(raw.t_utc_s, "bad_input", "alarm",
           "line " + std::to_string(raw.line) + ": volume increment " + fmt(dV_m3) + " m3 above max_flow " + fmt(cfg_.max_flow_m3_per_h) +
-              " m3/h x " + std::to_string(cfg_.interval_s) + " s = " + fmt(cfg_.max_volume_per_interval_m3()) + " m3; not counted",
-          raw.line, 0, dV_m3, cfg_.max_volume_per_interval_m3());
+              " m3/h over " + std::to_string(covered_s) + " s = " + fmt(dV_max_m3) + " m3; not counted",
+          raw.line, 0, dV_m3, dV_max_m3);
     prev_t_ = raw.t_utc_s;
     if (raw.t_utc_s == cur_end_) close_interval();
     return;
@@ -366,9 +373,17 @@ void Recorder::close_interval() {
   else if (!calc_failed && calc_bad_) event(cur_start_, "calc_ok", "info", "the method computes again");
   calc_bad_ = calc_failed;
   const Registers reg{r.V_f_um3, r.V_b_um3, r.V_fault_um3, r.E_J, r.mass_mg};
+  const auto at_limit = [](const Registers& x) {
+    for (const std::int64_t v : {x.V_f, x.V_b, x.V_fault, x.E, x.m})
+      if (v == std::numeric_limits<std::int64_t>::max() || v == std::numeric_limits<std::int64_t>::min()) return true;
+    return false;
+  };
+  const bool was_saturated = at_limit(cum_);
   if (add_registers(cum_, reg)) {  // the register readings saturate: flagged, never wrapped
     r.flags |= iflag::overflow | iflag::alarm;
-    event(cur_start_, "register_overflow", "alarm", "a register reading reached the int64 limit and saturates");
+    if (!was_saturated)
+      event(cur_start_, "register_overflow", "alarm",
+            "a register reading reached the int64 limit: it stays there and every later interval is flagged overflow");
   }
   flush_pending_events();
 

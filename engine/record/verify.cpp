@@ -145,7 +145,7 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
                     i_vf = col_index(ic, "V_f_m3"), i_vb = col_index(ic, "V_b_m3"), i_e = col_index(ic, "E_MJ"),
                     i_m = col_index(ic, "mass_kg"), i_rvf = col_index(ic, "V_f_um3"), i_rvb = col_index(ic, "V_b_um3"),
                     i_rvx = col_index(ic, "V_fault_um3"), i_re = col_index(ic, "E_J"), i_rm = col_index(ic, "mass_mg"),
-                    i_corr = col_index(ic, "corrects_seq");
+                    i_corr = col_index(ic, "corrects_seq"), i_iflags = col_index(ic, "flags");
   const auto& qc = cols::qtr;
   const std::size_t q_point = col_index(qc, "point"), q_period = col_index(qc, "period"), q_start = col_index(qc, "start_utc_s"),
                     q_end = col_index(qc, "end_utc_s"), q_n = col_index(qc, "intervals"), q_vf = col_index(qc, "V_f_um3"),
@@ -283,9 +283,13 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
       auto& p = points[as_text(r.values[i_point])];
       const auto s = as_i64(r.values[i_start]), en = as_i64(r.values[i_end]);
       p.cum.intervals++;
-      if (sat_add(p.cum.V_f_um3, vf) | sat_add(p.cum.V_b_um3, vb) | sat_add(p.cum.V_fault_um3, vx) | sat_add(p.cum.E_J, e) |
-          sat_add(p.cum.mass_mg, m))
-        report(r, "register_overflow", "the running sums of the point's intervals reach the int64 limit (saturated)");
+      // The running sums saturate as the recorder's registers do; the recorder
+      // flags every interval whose addition saturates them (iflag::overflow).
+      const bool saturated = sat_add(p.cum.V_f_um3, vf) | sat_add(p.cum.V_b_um3, vb) | sat_add(p.cum.V_fault_um3, vx) |
+                             sat_add(p.cum.E_J, e) | sat_add(p.cum.mass_mg, m);
+      if (saturated && !(as_i64(r.values[i_iflags]) & iflag::overflow))
+        report(r, "register_overflow", "the running sums of the point's intervals reach the int64 limit here, and the interval is not "
+                                       "flagged overflow");
       p.hour.add(vf, vb, vx, e, m, s, en);
       p.day.add(vf, vb, vx, e, m, s, en);
     } else if (r.table == Table::qtr) {
