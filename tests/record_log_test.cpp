@@ -226,6 +226,60 @@ TEST(RecordVerify, RowInsertedInTheShellIsFoundAndLocated) {
   EXPECT_GE(r2.findings_total, 2);
 }
 
+TEST(RecordVerify, ACorrectlyHashedForgeryAtAnEventsSeqIsTheOneCalledInserted) {
+  // A forged interval at the seq an event holds, linked to the same previous
+  // record and correctly hashed: both records at that seq are intact, and the
+  // genuine one is the one the next record links to.
+  auto p = recorded_log("forged_at_event");
+  std::int64_t ev = 0, src = 0;
+  {
+    Log log(p, {OpenMode::read_only});
+    ev = scalar(log.db(), "SELECT seq FROM event ORDER BY seq LIMIT 1 OFFSET 1");
+    src = scalar(log.db(), "SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 10");
+  }
+  ASSERT_LT(ev, scalar(Log(p, {OpenMode::read_only}).db(), "SELECT max(seq) FROM interval"));
+  std::string sel;
+  for (std::size_t i = 0; i < std::size(cols::interval); ++i) sel += (i ? ", " : "") + std::string(cols::interval[i]);
+  std::vector<Value> v(std::size(cols::interval));
+  Digest prev{};
+  {
+    Log log(p, {OpenMode::read_only});
+    Stmt s(log.db(), "SELECT " + sel + " FROM interval WHERE seq = " + std::to_string(src));
+    ASSERT_TRUE(s.step());
+    for (std::size_t i = 0; i < v.size(); ++i) v[i] = s.value(static_cast<int>(i));
+    Stmt e(log.db(), "SELECT prev_hash FROM event WHERE seq = " + std::to_string(ev));
+    ASSERT_TRUE(e.step());
+    std::memcpy(prev.data(), sqlite3_column_blob(e.raw(), 0), 32);
+  }
+  v[0] = ev;
+  v[column_index(cols::interval, "V_b_m3")] = 1234.5;  // what the forger wants counted
+  std::vector<std::uint8_t> bytes;
+  canonical_bytes(Table::interval, latest_encoding, v, bytes);
+  Hasher h;
+  const auto d = h.chain(prev, bytes);
+  std::string vals;
+  for (std::size_t i = 0; i < v.size(); ++i) {
+    const auto& x = v[i];
+    vals += i ? ", " : "";
+    if (std::holds_alternative<Null>(x)) vals += "NULL";
+    else if (x.index() == 1) vals += std::to_string(std::get<std::int64_t>(x));
+    else if (x.index() == 2) {
+      char buf[40];
+      std::snprintf(buf, sizeof buf, "%.17g", std::get<double>(x));
+      vals += buf;
+    } else vals += "'" + std::get<std::string>(x) + "'";
+  }
+  ASSERT_EQ(zcorr::testing::run_shell(p, "INSERT INTO interval (" + sel + ", prev_hash, hash) VALUES (" + vals + ", X'" + to_hex(prev) +
+                                             "', X'" + to_hex(d) + "')"),
+            0);
+  Log log(p, {OpenMode::read_only});
+  auto r = verify_log(log);
+  ASSERT_EQ(r.findings.size(), 1u) << r.findings[0].table << " " << r.findings[0].kind << " " << r.findings[0].detail;
+  EXPECT_EQ(r.findings[0].kind, "inserted");
+  EXPECT_EQ(r.findings[0].table, "interval");
+  EXPECT_EQ(r.findings[0].seq, ev);
+}
+
 TEST(RecordVerify, ReHashedChangeBreaksTheNextLink) {
   // A tamperer who recomputes the changed row's own hash (here: through the
   // log API, as if with the program itself) still breaks the link of the next

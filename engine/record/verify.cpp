@@ -352,11 +352,33 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
     out.records += static_cast<std::int64_t>(group.size());
     for (const auto& r : group) out.per_table[std::string(table_info(r.table).name)]++;
 
-    // The genuine record links to the previous one and matches its hash.
+    // The genuine record links to the previous one and matches its hash; when
+    // more than one does (a correctly hashed forgery at a seq a record holds),
+    // the genuine one is the one the next record links to.
     std::size_t pick = 0;
     bool found_good = false;
-    for (std::size_t i = 0; i < group.size(); ++i)
-      if (group[i].prev == prev_hash && content_ok(group[i])) { pick = i; found_good = true; break; }
+    std::vector<Digest> next_prevs;
+    bool next_read = false;
+    for (std::size_t i = 0; i < group.size(); ++i) {
+      if (!(group[i].prev == prev_hash && content_ok(group[i]))) continue;
+      if (!found_good) {
+        pick = i;
+        found_good = true;
+        continue;
+      }
+      if (!next_read) {  // the prev_hash of every record at the next seq, read in place
+        next_read = true;
+        std::int64_t after = INT64_MAX;
+        for (const auto& c : cursors)
+          if (c.has) after = std::min(after, c.seq);
+        for (const auto& c : cursors) {
+          Digest d{};
+          if (c.has && c.seq == after && read_digest(c.stmt, static_cast<int>(log_columns(c.table).size()), d)) next_prevs.push_back(d);
+        }
+      }
+      const auto linked = [&](const Row& x) { return std::find(next_prevs.begin(), next_prevs.end(), x.hash) != next_prevs.end(); };
+      if (!linked(group[pick]) && linked(group[i])) pick = i;
+    }
     const Row& r = group[pick];
     for (std::size_t i = 0; i < group.size(); ++i)
       if (i != pick)
