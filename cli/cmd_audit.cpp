@@ -31,6 +31,7 @@ namespace {
 struct AuditCliOptions {
   std::string db, point, from, to, contract;
   std::string wi_method, wi_base_T, wi_base_p, wi_combustion;
+  std::string expect_head;
   std::string report;  // --report FILE.html
   std::int64_t wi_analysis = 0;
   double max_age_h = 840;
@@ -85,6 +86,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
   ao.tolerance_ppm = o.tolerance_ppm;
 
   if (!o.wi_method.empty()) ao.what_if.method = o.wi_method;
+  if (!o.expect_head.empty()) ao.expected_head = record::parse_anchor(o.expect_head, "--expect-head");
   if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
   if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
   if (o.wi_analysis) ao.what_if.analysis_seq = o.wi_analysis;
@@ -369,6 +371,9 @@ void setup_audit(CLI::App& app, int& exit_code) {
   sub->add_option("--tolerance-ppm", opt->tolerance_ppm, "Allowed recalculation difference, ppm (API 21.1 bar: 50)")
       ->capture_default_str();
   sub->add_option("--what-if-method", opt->wi_method, "What-if: recompute with this line method (totals side by side)");
+  sub->add_option("--expect-head", opt->expect_head,
+                  "SEQ:HASH kept from an earlier run (record or verify print it): a critical finding unless that record is "
+                  "still in the log with that hash");
   sub->add_option("--what-if-base-T", opt->wi_base_T, "What-if: base temperature, e.g. \"60 degF\"");
   sub->add_option("--what-if-base-p", opt->wi_base_p, "What-if: base pressure, absolute, e.g. \"14.73 psia\"");
   sub->add_option("--what-if-analysis", opt->wi_analysis, "What-if: use this gas_analysis record (seq) for every interval");

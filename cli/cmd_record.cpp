@@ -63,11 +63,24 @@ int run_record(const RecordCliOptions& o) {
   ro.batch_intervals = o.batch;
   ro.eval.solve.allow_outside_range = o.allow_outside_range;
   ro.input_name = o.samples;
+  const std::int64_t head_before = log.head_seq();
   Recorder rec(log, cfg, *method, ro);
-  for (const auto& b : af.bad) rec.add_bad_analysis(b);
-  rec.add_analyses(af.analyses);
-  rec.feed(reader);
-  rec.finish();
+  try {
+    for (const auto& b : af.bad) rec.add_bad_analysis(b);
+    rec.add_analyses(af.analyses);
+    rec.feed(reader);
+    rec.finish();
+  } catch (const std::exception& e) {
+    // Exit 2 means nothing was recorded; once a batch is committed, a later
+    // failure is exit 1 and says what the log holds.
+    log.rollback();
+    if (log.head_seq() == head_before) throw;
+    std::cerr << "zcorr record: " << io::printable(e.what(), 1000) << "; the log keeps every record committed before it, up to seq "
+              << log.head_seq() << " (" << log.head_seq() - head_before
+              << " records of this run); run again on the same input to resume\n"
+              << caution_line << '\n';
+    return exit_partial;
+  }
   const auto& st = rec.stats();
   const std::int64_t bad_rows = st.bad_rows + static_cast<std::int64_t>(af.bad.size());
   if (o.format == Format::json) {
@@ -85,6 +98,7 @@ int run_record(const RecordCliOptions& o) {
     j["analyses"] = st.analyses;
     j["configurations"] = st.configs;
     j["transactions"] = st.commits;
+    j["read_back"] = st.read_back;
     j["rows_left_for_next_run"] = st.rows_left;
     j["last_interval_end"] = st.last_end_utc_s ? format_time_utc(st.last_end_utc_s) : "";
     j["head_seq"] = log.head_seq();
@@ -100,6 +114,7 @@ int run_record(const RecordCliOptions& o) {
               << "  events             " << st.events << '\n'
               << "  analyses, configs  " << st.analyses << ", " << st.configs << '\n'
               << "  transactions       " << st.commits << " (every " << o.batch << " intervals)\n"
+              << "  read back          " << st.read_back << " records appended by this run, as written\n"
               << "  head               seq " << log.head_seq() << ", hash " << to_hex(log.head_hash()) << '\n';
     if (st.rows_left > 0)
       std::cout << "  left               " << st.rows_left << " rows of an incomplete last interval (recorded by the next run)\n";

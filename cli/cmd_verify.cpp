@@ -1,6 +1,8 @@
 // zcorr verify: checks an interval log's hash chain and totals. Exit 0
 // clean, 1 findings (the first names the first bad row), 2 unreadable log.
 #include <iostream>
+#include <limits>
+#include <optional>
 #include <memory>
 
 #include <nlohmann/json.hpp>
@@ -18,14 +20,17 @@ struct VerifyOptions {
   std::string db;
   Format format = Format::text;
   std::size_t max_findings = 20;
+  std::string expect_head;
 };
 
 int run_verify(const VerifyOptions& o) {
   using namespace zcorr::record;
   VerifyResult r;
+  std::optional<Anchor> anchor;
+  if (!o.expect_head.empty()) anchor = parse_anchor(o.expect_head, "--expect-head");
   try {
     Log log(o.db, {OpenMode::read_only});
-    r = verify_log(log, o.max_findings);
+    r = verify_log(log, o.max_findings, std::numeric_limits<std::int64_t>::max(), anchor);
   } catch (const LogError& e) {
     std::cerr << "zcorr verify: " << e.what() << '\n';
     return exit_unusable;
@@ -40,6 +45,7 @@ int run_verify(const VerifyOptions& o) {
     j["records"] = r.records;
     j["head_seq"] = r.last_seq;
     j["head_hash"] = to_hex(r.head_hash);
+    if (anchor) j["expected_head"] = std::to_string(anchor->seq) + ":" + to_hex(anchor->hash);
     j["tables"] = r.per_table;
     j["created_by"] = r.created_by;
     for (const auto& [k, n] : r.per_encoding) j["encodings"][k ? "zcorr.record.v" + std::to_string(k) : std::string("unknown")] = n;
@@ -69,6 +75,12 @@ int run_verify(const VerifyOptions& o) {
     }
     std::cout << (r.created_by.empty() ? std::string() : "; log created by " + r.created_by) << '\n'
               << "head      seq " << r.last_seq << ", hash " << to_hex(r.head_hash) << '\n';
+    if (anchor) {
+      bool bad = false;
+      for (const auto& f : r.findings) bad |= f.kind == "anchor_mismatch" || (f.kind == "removed" && f.seq < anchor->seq);
+      std::cout << "expected  seq " << anchor->seq << ", hash " << to_hex(anchor->hash)
+                << (bad ? ": NOT in the log as it was (see the findings)" : ": in the log, as it was") << '\n';
+    }
     for (const auto& [name, p] : r.points)
       std::cout << "point     " << name << ": " << p.intervals << " intervals, V_b " << decimal(p.V_b_um3, 6) << " m3, V_f "
                 << decimal(p.V_f_um3, 6) << " m3, fault " << decimal(p.V_fault_um3, 6) << " m3, energy " << decimal(p.E_J, 6)
@@ -96,10 +108,13 @@ void setup_verify(CLI::App& app, int& exit_code) {
   auto* sub = app.add_subcommand("verify", "Check an interval log's hash chain and totals; name the first bad row");
   sub->add_option("--db", opt->db, "Interval log file")->required();
   sub->add_option("--max-findings", opt->max_findings, "Findings to list")->capture_default_str();
+  sub->add_option("--expect-head", opt->expect_head,
+                  "SEQ:HASH kept from an earlier run (record or verify print it): that record must still be in the log with "
+                  "that hash; catches the newest records removed, a re-hashed chain, a forged log");
   add_format_option(*sub, opt->format);
   sub->footer("\nExit status: 0 clean, 1 findings, 2 the log cannot be read.\n"
-              "Keep a copy of the printed head hash elsewhere: a later run showing the same head proves that\n"
-              "nothing up to it was rewritten.\n\nExample:\n  zcorr verify --db station.db\n");
+              "Keep a copy of the printed head (seq and hash) elsewhere, away from the log: a later\n"
+              "`zcorr verify --expect-head SEQ:HASH` proves that nothing up to it was removed or rewritten.\n\nExample:\n  zcorr verify --db station.db\n");
   sub->callback([opt, &exit_code] { exit_code = guarded("verify", [&] { return run_verify(*opt); }); });
 }
 

@@ -112,6 +112,74 @@ TEST(RecordLog, SecondWriterIsRefused) {
   EXPECT_TRUE(verify_log(reader).findings.empty());
 }
 
+TEST(RecordLog, OneWriterPerFileWhateverThePath) {
+  auto p = zcorr::testing::temp_log("one_file");
+  { Log create(p, {OpenMode::writer}); }
+  // Another name for the same file: a symbolic link (its own -writer.lock path) meets the file's own lock.
+  const auto alias = p.parent_path() / ("alias_of_" + p.filename().string());
+  std::filesystem::remove(alias);
+  std::filesystem::create_symlink(p, alias);
+  {
+    Log first(p, {OpenMode::writer});
+    try {
+      Log second(alias, {OpenMode::writer});
+      FAIL() << "a second writer through another path was let in";
+    } catch (const LogError& e) {
+      EXPECT_NE(std::string(e.what()).find("another writer is recording to this log file"), std::string::npos) << e.what();
+    }
+  }
+  { Log again(alias, {OpenMode::writer}); }  // once the first has gone, the other path may write
+  // A hard link: two names, two journals; refused for writing (both names), readable.
+  const auto link = p.parent_path() / ("link_of_" + p.filename().string());
+  std::filesystem::remove(link);
+  std::filesystem::create_hard_link(p, link);
+  for (const auto& name : {p, link}) {
+    try {
+      Log w(name, {OpenMode::writer});
+      FAIL() << "a writer of a file with two hard links was let in";
+    } catch (const LogError& e) {
+      EXPECT_NE(std::string(e.what()).find("2 hard links"), std::string::npos) << e.what();
+    }
+  }
+  Log reader(link, {OpenMode::read_only});
+  EXPECT_TRUE(verify_log(reader).findings.empty());
+  std::filesystem::remove(link);
+  std::filesystem::remove(alias);
+}
+
+TEST(RecordLog, WhatAWriterAppendedIsReadBackBeforeItReportsSuccess) {
+  auto p = zcorr::testing::temp_log("read_back");
+  Log w(p, {OpenMode::writer});
+  w.begin();
+  std::vector<Value> e{Null{}, std::string("P"), std::int64_t{1}, std::string("note"), std::string("info"), std::string("first"),
+                       Null{}, Null{}, Null{}, Null{}, Null{}};
+  w.append(Table::event, e);
+  w.append(Table::event, e);
+  w.commit();
+  EXPECT_EQ(w.recheck_appended(), 3);  // the log header and the two events
+  // Someone changes a committed record behind the writer's back (triggers put back).
+  ASSERT_EQ(zcorr::testing::run_shell(p, "DROP TRIGGER event_no_update; UPDATE event SET detail = 'changed' WHERE seq = 2"), 0);
+  try {
+    (void)w.recheck_appended();
+    FAIL() << "a changed record read back as written";
+  } catch (const LogError& ex) {
+    EXPECT_NE(std::string(ex.what()).find("record seq 2 (event)"), std::string::npos) << ex.what();
+  }
+}
+
+TEST(RecordLog, AClosedLogIsOneSelfContainedFile) {
+  auto p = recorded_log("self_contained");
+  // The writer has gone: its WAL was checkpointed into the .db, so the file alone is the log.
+  const auto copy = zcorr::testing::temp_log("self_contained_copy");
+  std::filesystem::copy_file(p, copy, std::filesystem::copy_options::overwrite_existing);
+  EXPECT_FALSE(std::filesystem::exists(copy.string() + "-wal"));
+  Log a(p, {OpenMode::read_only}), b(copy, {OpenMode::read_only});
+  EXPECT_EQ(a.head_seq(), b.head_seq());
+  EXPECT_EQ(a.head_hash(), b.head_hash());
+  EXPECT_GT(b.head_seq(), 60);
+  EXPECT_TRUE(verify_log(b).findings.empty());
+}
+
 TEST(RecordLog, WriterNoticesAppendsBySomeoneElse) {
   auto p = zcorr::testing::temp_log("interleave");
   Log w(p, {OpenMode::writer});

@@ -61,6 +61,7 @@
 #include <vector>
 
 #include "audit/replay.hpp"
+#include "record/verify.hpp"
 
 namespace zcorr::audit {
 
@@ -137,6 +138,8 @@ struct AuditOptions {
   double max_analysis_age_h = 840;     // 35 days (common practice: a monthly spot sample, with margin)
   double tolerance_ppm = recalculation_bar_ppm;
   std::size_t max_chain_findings = 1000;
+  // A head kept outside the log (record::Anchor): the verifier's findings say when the log no longer holds it.
+  std::optional<record::Anchor> expected_head;
   WhatIf what_if;        // when any() is set: a second replay with these changes, totals side by side
   bool parallel = true;  // check the chain on a second connection in a second thread while replaying
   // Called for every interval of the selection as it is replayed, in (point,

@@ -264,6 +264,7 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
     writer.rollback();
     throw;
   }
+  (void)writer.recheck_appended();  // the correction set reads back as written (throws LogError otherwise)
   if (req.progress) req.progress(total, total);
   return out;
 }

@@ -8,10 +8,23 @@
 // synchronous = FULL (Durability::full) it also survives a power loss.
 // A process killed mid-transaction loses only that uncommitted batch.
 //
-// One writer at a time: a writer holds an exclusive flock() on FILE-writer.lock
-// for its whole life (released by the kernel when the process dies, so a
-// killed recorder never leaves a stale lock) and checks at every begin() that
-// the chain head is still the one it last wrote.
+// One writer at a time, whatever the path: a writer holds an exclusive
+// flock() on the database file itself (its inode: a hard link, a symlink or a
+// bind mount of the same file meets the same lock; SQLite's own POSIX locks
+// are not used for this, they are dropped on any close of the file) and one
+// on FILE-writer.lock (it holds the writer's pid for the message, and keeps
+// out writers of earlier versions). Both are released by the kernel when the
+// process dies, so a killed recorder never leaves a stale lock. A log file
+// with more than one hard link is refused for writing (SQLite names its -wal
+// and -shm files after the path, so two names would be two journals). The
+// writer checks at every begin() that the chain head is still the one it last
+// wrote, and recheck_appended() re-reads what it appended before it reports
+// success.
+//
+// Archiving: when the last writer closes, the WAL is checkpointed and
+// truncated, so the .db file alone holds every committed record and can be
+// copied (see schema/README.md); it stays in WAL mode. Readers open read-only; a log on read-only media, or in a folder the
+// reader cannot write, with no -wal holding records, is opened as immutable.
 #pragma once
 
 #include <sqlite3.h>
@@ -66,6 +79,8 @@ class Log {
   // what a reader may SELECT. A column the log has not is NULL in every record.
   [[nodiscard]] std::span<const std::string_view> columns(Table t) const noexcept { return columns_of(t, encoding()); }
   [[nodiscard]] std::int64_t head_seq() const noexcept { return head_seq_; }
+  // A reader that opened the file as immutable (read-only media).
+  [[nodiscard]] bool immutable() const noexcept { return immutable_; }
   [[nodiscard]] const Digest& head_hash() const noexcept { return head_hash_; }
 
   // Writer only. begin() opens a write transaction (BEGIN IMMEDIATE) and
@@ -81,16 +96,31 @@ class Log {
   // the seq. Inside begin()/commit().
   std::int64_t append(Table t, std::vector<Value>& values);
 
+  // Writer only, outside a transaction: reads back every record this writer
+  // appended (from the first one to the head) and checks that the seqs run on
+  // one by one, each links to the one before and its hash stands for its
+  // contents. Throws LogError naming the first record that does not. Returns
+  // the number of records checked.
+  std::int64_t recheck_appended();
+  // The first seq this writer appended (0: none yet).
+  [[nodiscard]] std::int64_t first_appended_seq() const noexcept { return first_appended_seq_; }
+
  private:
   void read_head();
   void take_writer_lock();
+  void take_file_lock(bool create);
+  void release_locks() noexcept;
 
   std::filesystem::path file_;
   OpenOptions opt_;
   sqlite3* db_ = nullptr;
   int lock_fd_ = -1;
+  int file_lock_fd_ = -1;  // the database file itself, flock()ed; closed only after SQLite closed the file
+  std::int64_t first_appended_seq_ = 0;
+  Digest first_appended_prev_{};
   int version_ = 0;
   bool in_tx_ = false;
+  bool immutable_ = false;
   std::int64_t head_seq_ = 0;
   Digest head_hash_{};
   std::array<Stmt, table_count> insert_;

@@ -528,6 +528,8 @@ void Recorder::finish() {
     log_.commit();
     ++stats_.commits;
   }
+  // What this run appended reads back as written (throws LogError otherwise).
+  stats_.read_back = log_.recheck_appended();
 }
 
 void Recorder::feed(SampleReader& reader) {

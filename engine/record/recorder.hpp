@@ -47,6 +47,7 @@ struct RecordStats {
   std::int64_t intervals = 0, hours = 0, days = 0, events = 0, analyses = 0, configs = 0, commits = 0;
   std::int64_t rows_left = 0;         // rows of an incomplete last interval, left for the next run
   std::int64_t last_end_utc_s = 0;    // end of the last recorded interval
+  std::int64_t read_back = 0;         // records read back and checked after the last commit (Log::recheck_appended)
 };
 
 class Recorder {

@@ -6,6 +6,7 @@
 #include <cstring>
 #include <optional>
 
+#include "io/input_error.hpp"
 #include "io/text.hpp"
 #include "record/checked.hpp"
 #include "record/interval_calc.hpp"
@@ -93,7 +94,30 @@ std::int64_t head_seq(const Log& log) {
   return head;
 }
 
-VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq) {
+Anchor parse_anchor(std::string_view text, std::string_view field) {
+  const std::string allowed = "SEQ:HASH, a chain position and the 64 hex digits of its record's hash, as `zcorr verify` prints them";
+  const auto colon = text.find(':');
+  if (colon == std::string_view::npos || colon == 0) throw io::InputError(std::string(field), std::string(text), allowed);
+  Anchor a;
+  const auto seq = text.substr(0, colon), hex = text.substr(colon + 1);
+  for (const char c : seq)
+    if (c < '0' || c > '9') throw io::InputError(std::string(field), std::string(text), allowed);
+  if (seq.size() > 18 || hex.size() != 64) throw io::InputError(std::string(field), std::string(text), allowed);
+  a.seq = std::stoll(std::string(seq));
+  for (std::size_t i = 0; i < 32; ++i) {
+    int v = 0;
+    for (const char c : hex.substr(2 * i, 2)) {
+      const int d = c >= '0' && c <= '9' ? c - '0' : c >= 'a' && c <= 'f' ? c - 'a' + 10 : c >= 'A' && c <= 'F' ? c - 'A' + 10 : -1;
+      if (d < 0) throw io::InputError(std::string(field), std::string(text), allowed);
+      v = v * 16 + d;
+    }
+    a.hash[i] = static_cast<std::uint8_t>(v);
+  }
+  if (a.seq < 1) throw io::InputError(std::string(field), std::string(text), allowed);
+  return a;
+}
+
+VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq, const std::optional<Anchor>& anchor) {
   VerifyResult out;
   sqlite3* db = log.db();
   exec(db, "BEGIN");  // one consistent snapshot while a writer may be appending
@@ -399,6 +423,9 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
                                       ": the record was changed and re-hashed, or replaced", {}, {}});
       }
     }
+    if (anchor && next == anchor->seq && r.hash != anchor->hash)
+      report(r, "anchor_mismatch", "its hash " + to_hex(r.hash) + " is not the expected " + to_hex(anchor->hash) +
+                                       ": the log was re-hashed from this record or before, or replaced");
     check_totals(r);
     check_correction(r);
     prev_seq = next;
@@ -443,10 +470,19 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
         ++out.findings_total;
         if (out.findings.size() < max_findings)
           out.findings.push_back({std::string(tables[t].name), 0, 0, "missing_trigger",
-                                  "the trigger " + name + " is missing: the table's records can be changed in place", std::nullopt,
+                                  "the trigger " + name + " is missing: the table's records can be " +
+                                      (std::string_view(what) == "_no_update" ? "changed in place" : "deleted"), std::nullopt,
                                   std::nullopt});
       }
     }
+  }
+  if (anchor && prev_seq < anchor->seq) {
+    ++out.findings_total;
+    if (out.findings.size() < max_findings)
+      out.findings.push_back({std::string(table_info(prev_table).name), prev_seq, prev_time, "removed",
+                              "the log ends at seq " + std::to_string(prev_seq) + ", before the expected seq " + std::to_string(anchor->seq) +
+                                  ": records " + std::to_string(prev_seq + 1) + ".." + std::to_string(anchor->seq) +
+                                  " at least were removed from its end", {}, {}});
   }
   if (out.records == 0) {
     ++out.findings_total;

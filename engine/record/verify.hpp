@@ -66,11 +66,25 @@ struct VerifyResult {
   std::int64_t findings_total = 0;
 };
 
+// A chain position and the hash its record had, kept outside the log (the
+// head printed by `zcorr record` or `zcorr verify`): the log must still hold
+// that record with that hash. It catches what the chain alone cannot: the
+// newest records removed, the chain re-hashed from a point, a whole log forged.
+struct Anchor {
+  std::int64_t seq = 0;
+  Digest hash{};
+};
+// Parses "SEQ:HASH" (HASH: 64 hex digits, as printed); throws io::InputError naming `field`.
+[[nodiscard]] Anchor parse_anchor(std::string_view text, std::string_view field);
+
 // head_seq: verify only the records up to that chain position (the audit's
 // snapshot: the log is append-only, so the records up to a head it read once
 // are one consistent prefix, whatever a writer appends meanwhile).
+// anchor: the record it names must be in the log with its hash (findings
+// anchor_mismatch, or removed when the log ends before it).
 [[nodiscard]] VerifyResult verify_log(const Log& log, std::size_t max_findings = 50,
-                                      std::int64_t head_seq = std::numeric_limits<std::int64_t>::max());
+                                      std::int64_t head_seq = std::numeric_limits<std::int64_t>::max(),
+                                      const std::optional<Anchor>& anchor = std::nullopt);
 // The highest chain position in the log (0 when it holds none).
 [[nodiscard]] std::int64_t head_seq(const Log& log);
 

@@ -53,3 +53,12 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
                    ${CLI_DATA}/analyses.csv)
   set_tests_properties(cli.record_killed_and_resumed PROPERTIES PASS_REGULAR_EXPRESSION "final log equals the uninterrupted one")
 endif()
+
+# An anchored head, two recorders through a hard link, a closed log on read-only media (tests/cli/log_safety.sh).
+if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
+  add_test(NAME cli.log_safety
+           COMMAND bash ${CMAKE_CURRENT_SOURCE_DIR}/cli/log_safety.sh $<TARGET_FILE:zcorr> ${LOG_DIR}/safety ${CLI_DATA}/point.conf
+                   ${CLI_DATA}/analyses.csv)
+  set_tests_properties(cli.log_safety PROPERTIES PASS_REGULAR_EXPRESSION "anchor, hard link and read-only media all hold"
+                       SKIP_RETURN_CODE 77)
+endif()
