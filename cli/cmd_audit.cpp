@@ -13,6 +13,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "record/seal.hpp"
+
 #include "audit/audit.hpp"
 #include "audit/report_html.hpp"
 #include "commands.hpp"
@@ -31,7 +33,7 @@ namespace {
 struct AuditCliOptions {
   std::string db, point, from, to, contract;
   std::string wi_method, wi_base_T, wi_base_p, wi_combustion;
-  std::string expect_head;
+  std::string expect_head, seal_key;
   std::string report;  // --report FILE.html
   std::int64_t wi_analysis = 0;
   double max_age_h = 840;
@@ -86,6 +88,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
   ao.tolerance_ppm = o.tolerance_ppm;
 
   if (!o.wi_method.empty()) ao.what_if.method = o.wi_method;
+  if (!o.seal_key.empty()) ao.seal_key = record::load_seal_key(o.seal_key, "--seal-key");
   if (!o.expect_head.empty()) ao.expected_head = record::parse_anchor(o.expect_head, "--expect-head");
   if (!o.wi_base_T.empty()) ao.what_if.base_T_K = io::parse_temperature_K(o.wi_base_T, "--what-if-base-T");
   if (!o.wi_base_p.empty()) ao.what_if.base_p_Pa = io::parse_pressure_Pa(o.wi_base_p, "--what-if-base-p");
@@ -371,6 +374,8 @@ void setup_audit(CLI::App& app, int& exit_code) {
   sub->add_option("--tolerance-ppm", opt->tolerance_ppm, "Allowed recalculation difference, ppm (API 21.1 bar: 50)")
       ->capture_default_str();
   sub->add_option("--what-if-method", opt->wi_method, "What-if: recompute with this line method (totals side by side)");
+  sub->add_option("--seal-key", opt->seal_key, "The key file the log was recorded with: a critical finding unless every seal is right "
+                                             "and the log ends in one");
   sub->add_option("--expect-head", opt->expect_head,
                   "SEQ:HASH kept from an earlier run (record or verify print it): a critical finding unless that record is "
                   "still in the log with that hash");

@@ -10,13 +10,14 @@
 #include "io/units_parse.hpp"
 #include "progress.hpp"
 #include "record/quantities.hpp"
+#include "record/seal.hpp"
 #include "record/timeutil.hpp"
 
 namespace zcorr::cli {
 namespace {
 
 struct CorrectCliOptions {
-  std::string db, point, from, to, method, base_T, base_p, reason;
+  std::string db, point, from, to, method, base_T, base_p, reason, seal_key;
   std::int64_t analysis = 0;
 };
 
@@ -32,6 +33,7 @@ int run_correct(const CorrectCliOptions& o) {
   if (!o.base_p.empty()) req.change.base_p_Pa = io::parse_pressure_Pa(o.base_p, "--base-p");
   if (o.analysis) req.change.analysis_seq = o.analysis;
   req.reason = o.reason;
+  if (!o.seal_key.empty()) req.seal_key = record::load_seal_key(o.seal_key, "--seal-key");
   req.progress = stderr_progress("correct");
   audit::CorrectionOutcome out;
   try {
@@ -74,6 +76,7 @@ void setup_correct(CLI::App& app, int& exit_code) {
   sub->add_option("--base-p", opt->base_p, "Recompute at this base pressure, absolute, e.g. \"101.325 kPa\" or \"14.73 psia\"");
   sub->add_option("--analysis", opt->analysis, "Recompute every interval with this gas_analysis record (seq)");
   sub->add_option("--reason", opt->reason, "Why (required; kept in every correcting record)")->required();
+  sub->add_option("--seal-key", opt->seal_key, "Key file of a sealed log: the correction set ends in a seal as a recording does");
   sub->footer(std::string("\nEvery interval of the point and range that no correction replaces yet is recomputed and written as a\n"
                           "new record naming the one it replaces (corrects_seq); nothing logged changes. The set is one\n"
                           "transaction: written whole or not at all. Try it first with zcorr audit --what-if-....\n\n"

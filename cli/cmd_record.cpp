@@ -18,13 +18,14 @@
 #include "record/input.hpp"
 #include "record/log.hpp"
 #include "record/recorder.hpp"
+#include "record/seal.hpp"
 #include "record/timeutil.hpp"
 
 namespace zcorr::cli {
 namespace {
 
 struct RecordCliOptions {
-  std::string db, config, samples, analyses;
+  std::string db, config, samples, analyses, seal_key;
   std::int64_t batch = 60;
   std::string sync = "normal";
   bool allow_outside_range = false;
@@ -58,7 +59,10 @@ int run_record(const RecordCliOptions& o) {
   OpenOptions oo;
   oo.mode = OpenMode::writer;
   oo.durability = o.sync == "full" ? Durability::full : Durability::normal;
+  std::vector<std::uint8_t> key;
+  if (!o.seal_key.empty()) key = load_seal_key(o.seal_key, "--seal-key");
   Log log(o.db, oo);
+  if (!key.empty()) log.set_seal_key(std::move(key));
   RecordOptions ro;
   ro.batch_intervals = o.batch;
   ro.eval.solve.allow_outside_range = o.allow_outside_range;
@@ -99,6 +103,7 @@ int run_record(const RecordCliOptions& o) {
     j["configurations"] = st.configs;
     j["transactions"] = st.commits;
     j["read_back"] = st.read_back;
+    j["seals"] = log.seals_written();
     j["rows_left_for_next_run"] = st.rows_left;
     j["last_interval_end"] = st.last_end_utc_s ? format_time_utc(st.last_end_utc_s) : "";
     j["head_seq"] = log.head_seq();
@@ -115,6 +120,8 @@ int run_record(const RecordCliOptions& o) {
               << "  analyses, configs  " << st.analyses << ", " << st.configs << '\n'
               << "  transactions       " << st.commits << " (every " << o.batch << " intervals)\n"
               << "  read back          " << st.read_back << " records appended by this run, as written\n"
+              << (log.seals_written() ? "  sealed             " + std::to_string(log.seals_written()) + " seal(s), the last at the head\n"
+                                      : std::string())
               << "  head               seq " << log.head_seq() << ", hash " << to_hex(log.head_hash()) << '\n';
     if (st.rows_left > 0)
       std::cout << "  left               " << st.rows_left << " rows of an incomplete last interval (recorded by the next run)\n";
@@ -135,6 +142,9 @@ void setup_record(CLI::App& app, int& exit_code) {
   sub->add_option("--analyses", opt->analyses, "Gas-analysis CSV: valid_from, [sampled, source, Hs_MJ_per_m3, hs_ref], components")
       ->check(CLI::ExistingFile);
   sub->add_option("--batch", opt->batch, "Intervals per transaction (flush policy)")->check(CLI::Range(1, 1000000))->capture_default_str();
+  sub->add_option("--seal-key", opt->seal_key,
+                  "Key file (at least 32 bytes, kept away from the log): every transaction ends in a seal, an HMAC of the "
+                  "chain head, that `verify --seal-key` checks");
   sub->add_option("--sync", opt->sync, "normal: committed batches survive a killed process; full: also a power loss")
       ->check(CLI::IsMember({"normal", "full"}))
       ->capture_default_str();

@@ -11,6 +11,7 @@
 #include "common.hpp"
 #include "record/quantities.hpp"
 #include "record/timeutil.hpp"
+#include "record/seal.hpp"
 #include "record/verify.hpp"
 
 namespace zcorr::cli {
@@ -20,7 +21,7 @@ struct VerifyOptions {
   std::string db;
   Format format = Format::text;
   std::size_t max_findings = 20;
-  std::string expect_head;
+  std::string expect_head, seal_key;
 };
 
 int run_verify(const VerifyOptions& o) {
@@ -28,9 +29,11 @@ int run_verify(const VerifyOptions& o) {
   VerifyResult r;
   std::optional<Anchor> anchor;
   if (!o.expect_head.empty()) anchor = parse_anchor(o.expect_head, "--expect-head");
+  std::vector<std::uint8_t> key;
+  if (!o.seal_key.empty()) key = load_seal_key(o.seal_key, "--seal-key");
   try {
     Log log(o.db, {OpenMode::read_only});
-    r = verify_log(log, o.max_findings, std::numeric_limits<std::int64_t>::max(), anchor);
+    r = verify_log(log, o.max_findings, std::numeric_limits<std::int64_t>::max(), anchor, key);
   } catch (const LogError& e) {
     std::cerr << "zcorr verify: " << e.what() << '\n';
     return exit_unusable;
@@ -45,6 +48,9 @@ int run_verify(const VerifyOptions& o) {
     j["records"] = r.records;
     j["head_seq"] = r.last_seq;
     j["head_hash"] = to_hex(r.head_hash);
+    j["seals"] = r.seals;
+    j["seals_checked"] = r.seals_checked;
+    j["last_seal_seq"] = r.last_seal_seq;
     if (anchor) j["expected_head"] = std::to_string(anchor->seq) + ":" + to_hex(anchor->hash);
     j["tables"] = r.per_table;
     j["created_by"] = r.created_by;
@@ -75,6 +81,11 @@ int run_verify(const VerifyOptions& o) {
     }
     std::cout << (r.created_by.empty() ? std::string() : "; log created by " + r.created_by) << '\n'
               << "head      seq " << r.last_seq << ", hash " << to_hex(r.head_hash) << '\n';
+    if (r.seals > 0 || r.seals_checked)
+      std::cout << "seals     " << r.seals
+                << (r.seals ? ", the last at seq " + std::to_string(r.last_seal_seq) + " (" + format_time_utc(r.last_seal_utc_s) + ")"
+                            : std::string())
+                << (r.seals_checked ? "; checked with the key given" : "; not checked (no --seal-key)") << '\n';
     if (anchor) {
       bool bad = false;
       for (const auto& f : r.findings) bad |= f.kind == "anchor_mismatch" || (f.kind == "removed" && f.seq < anchor->seq);
@@ -108,6 +119,9 @@ void setup_verify(CLI::App& app, int& exit_code) {
   auto* sub = app.add_subcommand("verify", "Check an interval log's hash chain and totals; name the first bad row");
   sub->add_option("--db", opt->db, "Interval log file")->required();
   sub->add_option("--max-findings", opt->max_findings, "Findings to list")->capture_default_str();
+  sub->add_option("--seal-key", opt->seal_key,
+                  "The key file the log was recorded with: every seal's MAC is checked and the log must end in a seal "
+                  "(catches truncation, re-hashing and a forged log)");
   sub->add_option("--expect-head", opt->expect_head,
                   "SEQ:HASH kept from an earlier run (record or verify print it): that record must still be in the log with "
                   "that hash; catches the newest records removed, a re-hashed chain, a forged log");

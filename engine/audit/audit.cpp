@@ -237,7 +237,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   auto verify = [&] {
     try {
       record::Log vlog(log.file(), {record::OpenMode::read_only});
-      v = record::verify_log(vlog, opt.max_chain_findings, head, opt.expected_head);
+      v = record::verify_log(vlog, opt.max_chain_findings, head, opt.expected_head, opt.seal_key);
     } catch (...) {
       verify_error = std::current_exception();
     }

@@ -140,6 +140,8 @@ struct AuditOptions {
   std::size_t max_chain_findings = 1000;
   // A head kept outside the log (record::Anchor): the verifier's findings say when the log no longer holds it.
   std::optional<record::Anchor> expected_head;
+  // The key the log was sealed with (record/seal.hpp): the verifier checks every seal and the head's.
+  std::vector<std::uint8_t> seal_key;
   WhatIf what_if;        // when any() is set: a second replay with these changes, totals side by side
   bool parallel = true;  // check the chain on a second connection in a second thread while replaying
   // Called for every interval of the selection as it is replayed, in (point,

@@ -74,6 +74,7 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
   // The writer first (it upgrades the schema), then a reader for the replay:
   // its snapshot does not see the set while it is being written.
   record::Log writer(file, {record::OpenMode::writer, record::Durability::full, false});
+  if (!req.seal_key.empty()) writer.set_seal_key(req.seal_key);
   record::Log reader(file, {record::OpenMode::read_only});
   {  // never on top of a broken chain or totals that do not add up
     const auto v = record::verify_log(reader, 1);

@@ -43,6 +43,7 @@ struct CorrectionRequest {
   std::optional<std::int64_t> to_utc_s;        // intervals starting before
   WhatIf change;                               // at least one change
   std::string reason;                          // required: why (in every correcting record)
+  std::vector<std::uint8_t> seal_key;          // when the log is sealed: the key, to seal the correction set
   std::function<void(std::int64_t done, std::int64_t total)> progress;
 };
 

@@ -11,6 +11,8 @@
 #include <fstream>
 #include <random>
 
+#include "record/seal.hpp"
+
 namespace zcorr::record {
 
 static_assert(encoding_schema[latest_encoding] <= latest_schema_version,
@@ -267,6 +269,7 @@ void Log::begin() {
   if (in_tx_) throw LogError("zcorr log: a transaction is already open");
   exec(db_, "BEGIN IMMEDIATE");
   in_tx_ = true;
+  tx_start_head_ = head_seq_;
   const auto seq = head_seq_;
   const auto hash = head_hash_;
   read_head();
@@ -277,8 +280,21 @@ void Log::begin() {
   }
 }
 
+void Log::set_seal_key(std::vector<std::uint8_t> key) {
+  if (opt_.mode != OpenMode::writer) throw LogError(file_.string() + ": opened read-only");
+  seal_key_id_ = seal_key_id(key);
+  seal_key_ = std::move(key);
+}
+
 void Log::commit() {
   if (!in_tx_) return;
+  if (!seal_key_.empty() && head_seq_ > tx_start_head_) {  // the transaction's last record: a seal of its head
+    std::vector<Value> v{Null{}, now_utc_s(), head_seq_, seal_key_id_, Null{}, std::string(engine_version()), Null{}};
+    const Digest mac = seal_mac(seal_key_, head_seq_, head_hash_);
+    v[4] = Blob(mac.begin(), mac.end());
+    append(Table::seal, v);
+    ++seals_written_;
+  }
   exec(db_, "COMMIT");
   in_tx_ = false;
 }

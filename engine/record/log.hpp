@@ -96,6 +96,11 @@ class Log {
   // the seq. Inside begin()/commit().
   std::int64_t append(Table t, std::vector<Value>& values);
 
+  // Writer only: from now on every commit() that appended records first
+  // appends a seal of the head (record/seal.hpp) under this key.
+  void set_seal_key(std::vector<std::uint8_t> key);
+  [[nodiscard]] std::int64_t seals_written() const noexcept { return seals_written_; }
+
   // Writer only, outside a transaction: reads back every record this writer
   // appended (from the first one to the head) and checks that the seqs run on
   // one by one, each links to the one before and its hash stands for its
@@ -117,6 +122,10 @@ class Log {
   int lock_fd_ = -1;
   int file_lock_fd_ = -1;  // the database file itself, flock()ed; closed only after SQLite closed the file
   std::int64_t first_appended_seq_ = 0;
+  std::vector<std::uint8_t> seal_key_;
+  std::string seal_key_id_;
+  std::int64_t seals_written_ = 0;
+  std::int64_t tx_start_head_ = 0;
   Digest first_appended_prev_{};
   int version_ = 0;
   bool in_tx_ = false;

@@ -28,8 +28,8 @@
 
 namespace zcorr::record {
 
-enum class Table : std::size_t { log_header, point_config, gas_analysis, interval, event, qtr, correction_set };
-inline constexpr std::size_t table_count = 7;
+enum class Table : std::size_t { log_header, point_config, gas_analysis, interval, event, qtr, correction_set, seal };
+inline constexpr std::size_t table_count = 8;
 
 // The canonical encoding new records are written with.
 inline constexpr int latest_encoding = 3;
@@ -88,6 +88,9 @@ inline constexpr Column correction_set[] = {
     {"V_b_um3_replaced", 1}, {"E_J_replaced", 1}, {"V_b_um3_corrected", 1}, {"E_J_corrected", 1},
     {"engine_version", 1},
     {"canon_version", 2}};
+// Created by migration 006 with every column: every seal is in an encoding that covers them all.
+inline constexpr Column seal[] = {
+    {"seq", 1}, {"time_utc_s", 1}, {"sealed_seq", 1}, {"key_id", 1}, {"mac", 1}, {"engine_version", 1}, {"canon_version", 2}};
 }  // namespace versioned
 
 namespace detail {
@@ -109,6 +112,7 @@ inline constexpr auto interval = detail::names_of(versioned::interval);
 inline constexpr auto event = detail::names_of(versioned::event);
 inline constexpr auto qtr = detail::names_of(versioned::qtr);
 inline constexpr auto correction_set = detail::names_of(versioned::correction_set);
+inline constexpr auto seal = detail::names_of(versioned::seal);
 }  // namespace cols
 
 struct TableInfo {
@@ -126,6 +130,7 @@ inline constexpr std::array<TableInfo, table_count> tables{{
     {"event", cols::event, versioned::event},
     {"qtr", cols::qtr, versioned::qtr},
     {"correction_set", cols::correction_set, versioned::correction_set, 3},
+    {"seal", cols::seal, versioned::seal, 6},
 }};
 
 // Position of a column in a table's list (columns.size() when absent).

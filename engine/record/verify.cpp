@@ -10,6 +10,7 @@
 #include "io/text.hpp"
 #include "record/checked.hpp"
 #include "record/interval_calc.hpp"
+#include "record/seal.hpp"
 
 namespace zcorr::record {
 namespace {
@@ -117,7 +118,8 @@ Anchor parse_anchor(std::string_view text, std::string_view field) {
   return a;
 }
 
-VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq, const std::optional<Anchor>& anchor) {
+VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t head_seq, const std::optional<Anchor>& anchor,
+                        std::span<const std::uint8_t> seal_key) {
   VerifyResult out;
   sqlite3* db = log.db();
   exec(db, "BEGIN");  // one consistent snapshot while a writer may be appending
@@ -423,6 +425,25 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
                                       ": the record was changed and re-hashed, or replaced", {}, {}});
       }
     }
+    if (r.table == Table::seal) {
+      const auto& sc = cols::seal;
+      ++out.seals;
+      out.last_seal_seq = r.seq;
+      out.last_seal_utc_s = as_i64(r.values[col_index(sc, "time_utc_s")]);
+      const auto sealed = as_i64(r.values[col_index(sc, "sealed_seq")]);
+      const Value& m = r.values[col_index(sc, "mac")];
+      if (sealed != r.seq - 1) report(r, "seal_mismatch", "it seals seq " + std::to_string(sealed) + ", not the record before it");
+      else if (!seal_key.empty()) {
+        const std::string id = as_text(r.values[col_index(sc, "key_id")]);
+        const bool mac_ok = m.index() == 4 && std::get<Blob>(m).size() == 32 &&
+                            std::equal(std::get<Blob>(m).begin(), std::get<Blob>(m).end(), seal_mac(seal_key, sealed, prev_hash).begin());
+        if (id != seal_key_id(seal_key))
+          report(r, "seal_mismatch", "sealed under another key (key id " + id + ", the key given is " + seal_key_id(seal_key) + ")");
+        else if (!mac_ok)
+          report(r, "seal_mismatch", "its MAC is not that of the chain head it seals (seq " + std::to_string(sealed) +
+                                         "): the records up to it were re-hashed or replaced, or the seal forged");
+      }
+    }
     if (anchor && next == anchor->seq && r.hash != anchor->hash)
       report(r, "anchor_mismatch", "its hash " + to_hex(r.hash) + " is not the expected " + to_hex(anchor->hash) +
                                        ": the log was re-hashed from this record or before, or replaced");
@@ -475,6 +496,21 @@ VerifyResult verify_log(const Log& log, std::size_t max_findings, std::int64_t h
                                   std::nullopt});
       }
     }
+  }
+  out.seals_checked = !seal_key.empty();
+  if (!seal_key.empty() && out.seals == 0) {
+    ++out.findings_total;
+    if (out.findings.size() < max_findings)
+      out.findings.push_back({std::string(table_info(prev_table).name), prev_seq, prev_time, "unsealed",
+                              "the log holds no seal: it was not written with this key, or it was forged", {}, {}});
+  } else if (!seal_key.empty() && out.last_seal_seq != prev_seq) {
+    ++out.findings_total;
+    if (out.findings.size() < max_findings)
+      out.findings.push_back({std::string(table_info(prev_table).name), prev_seq, prev_time, "unsealed_head",
+                              "records seq " + std::to_string(out.last_seal_seq + 1) + ".." + std::to_string(prev_seq) +
+                                  " follow the last seal (seq " + std::to_string(out.last_seal_seq) +
+                                  "): a writer seals every transaction it commits, so records after the last seal were added "
+                                  "by someone else, or newer records and their seals were removed", {}, {}});
   }
   if (anchor && prev_seq < anchor->seq) {
     ++out.findings_total;

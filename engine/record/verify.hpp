@@ -28,6 +28,7 @@
 #include <limits>
 #include <map>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
 
@@ -62,6 +63,10 @@ struct VerifyResult {
   std::map<int, std::int64_t> per_encoding;  // records by the canonical encoding they name (the record kept at each seq)
   std::string created_by;                    // the log header's engine_version (record::describe_engine_version)
   std::map<std::string, PointTotals> points;
+  std::int64_t seals = 0;          // seal records (checked only when a key was given)
+  std::int64_t last_seal_seq = 0;  // the newest seal's chain position (0: none)
+  std::int64_t last_seal_utc_s = 0;
+  bool seals_checked = false;      // a key was given: every seal's MAC was checked
   std::vector<Finding> findings;  // in chain order, at most max_findings
   std::int64_t findings_total = 0;
 };
@@ -82,9 +87,13 @@ struct Anchor {
 // are one consistent prefix, whatever a writer appends meanwhile).
 // anchor: the record it names must be in the log with its hash (findings
 // anchor_mismatch, or removed when the log ends before it).
+// seal_key: the key the log's writer sealed it with (record/seal.hpp): every
+// seal's MAC must be right (seal_mismatch), the log must hold seals
+// (unsealed) and end in one (unsealed_head: records after the last seal).
 [[nodiscard]] VerifyResult verify_log(const Log& log, std::size_t max_findings = 50,
                                       std::int64_t head_seq = std::numeric_limits<std::int64_t>::max(),
-                                      const std::optional<Anchor>& anchor = std::nullopt);
+                                      const std::optional<Anchor>& anchor = std::nullopt,
+                                      std::span<const std::uint8_t> seal_key = {});
 // The highest chain position in the log (0 when it holds none).
 [[nodiscard]] std::int64_t head_seq(const Log& log);
 
