@@ -727,3 +727,70 @@ TEST(Gerg2008LineState, OtherMethodsFlagTwoPhaseStates) {
     EXPECT_FALSE(m->state(288.15, 5e6, EvalOptions{}).status.has(flag::dew_point_suspected)) << method_name(id);
   }
 }
+
+// The near-dew flag: a single-phase state less than EvalOptions::dew_margin_K above the dew
+// temperature at its pressure is flagged near_dew_point, one further above is not, and the
+// margin is the option's. The dew temperatures are this engine's own (dew_temperature at the
+// state's pressure, between the pressure nodes of the cache); no outside value.
+TEST(Gerg2008LineState, NearDewFlagWithinTheMarginAboveTheDewTemperature) {
+  const auto x = reference_gas("G05");
+  const auto p = prep<double>(x);
+  for (double P : {2.0e6, 2.037e6, 4.55e6}) {
+    const auto d = ph::dew_temperature(p, P);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found) << P;
+    for (auto id : {MethodId::gerg2008, MethodId::detail}) {
+      auto m = make_line_method(id);
+      ASSERT_TRUE(m->prepare(x).ok());
+      EvalOptions e;  // default margin 5 K
+      ASSERT_EQ(e.dew_margin_K, 5.0);
+      e.solve.allow_outside_range = true;  // detail: keep its expanded-range refusals out of the way
+      const auto near = m->state(d.T_K + 2.0, P, e);
+      EXPECT_EQ(near.status.code, Code::ok) << method_name(id) << " " << P;
+      EXPECT_TRUE(near.status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_TRUE(near.has(Quantity::Z));
+      // just inside and just outside the margin (the interpolation between nodes is good to mK)
+      EXPECT_TRUE(m->state(d.T_K + 4.95, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_FALSE(m->state(d.T_K + 5.05, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_FALSE(m->state(d.T_K + 8.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      e.dew_margin_K = 10.0;
+      EXPECT_TRUE(m->state(d.T_K + 8.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      e.dew_margin_K = 0.0;
+      EXPECT_FALSE(m->state(d.T_K + 2.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      // below the dew temperature: two-phase (gerg2008) or dew_point_suspected, never near_dew_point
+      const auto below = m->state(d.T_K - 2.0, P, EvalOptions{});
+      EXPECT_FALSE(below.status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+    }
+  }
+  // The check gives the dew temperature it compared with.
+  PhaseCheck pc;
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto d = ph::dew_temperature(p, 2.037e6);
+  const auto r = pc.check(d.T_K + 1.0, 2.037e6, 5.0);
+  EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
+  EXPECT_TRUE(r.near_dew);
+  EXPECT_NEAR(r.T_dew_K, d.T_K, 0.01);
+  // Far above: settled without the dew temperature being needed, not near.
+  const auto far = pc.check(330.0, 2.037e6, 5.0);
+  EXPECT_EQ(far.verdict, PhaseVerdict::single_phase);
+  EXPECT_FALSE(far.near_dew);
+}
+
+// A state flagged near the dew point is never unstable by the full test (grid over G05, near
+// the dew line and through it).
+TEST(Gerg2008LineState, NearDewStatesAreStable) {
+  const auto x = reference_gas("G05");
+  const auto p = prep<double>(x);
+  auto m = make_line_method(MethodId::gerg2008);
+  ASSERT_TRUE(m->prepare(x).ok());
+  int near = 0;
+  for (double P = 1.03e6; P <= 8e6; P += 0.87e6) {
+    for (double T = 255.0; T <= 285.0; T += 1.1) {
+      const auto out = m->state(T, P, EvalOptions{});
+      if (!out.status.has(flag::near_dew_point)) continue;
+      ++near;
+      EXPECT_TRUE(out.status.ok());
+      EXPECT_FALSE(ph::stability(p, T, P).unstable) << T << " " << P;
+    }
+  }
+  EXPECT_GT(near, 20);
+}

@@ -79,6 +79,10 @@ struct EvalOptions {
   // GERG-2008: test mixture states for phase stability (eval/phase_check.hpp); a two-phase
   // state gets Code::two_phase and no Z. Off only for comparisons with the bare equation.
   bool phase_check = true;
+  // With the phase check: a single-phase state less than this many kelvin above the
+  // hydrocarbon dew temperature at its pressure gets flag::near_dew_point (0: not checked).
+  double dew_margin_K = default_dew_margin_K;
+  static constexpr double default_dew_margin_K = 5.0;
 };
 
 class LineMethod {

@@ -28,6 +28,7 @@ Status PhaseCheck::prepare(const Fractions<double>& x) noexcept {
   cct_tried_ = false;
   cct_ = {};
   node_T_.fill(std::numeric_limits<double>::quiet_NaN());
+  node_exact_.fill(false);
   applies_ = false;
   const Status s = ph::prepare_dry(x, dry_);
   if (!s.ok()) return s;
@@ -46,16 +47,18 @@ const ph::Cricondentherm<double>* PhaseCheck::cricondentherm() noexcept {
   return cct_.status.ok() && cct_.found ? &cct_ : nullptr;
 }
 
-double PhaseCheck::node(std::size_t k) noexcept {
-  if (!std::isnan(node_T_[k])) return node_T_[k];
+double PhaseCheck::node(std::size_t k, bool exact) noexcept {
+  if (!std::isnan(node_T_[k]) && (node_exact_[k] || !exact)) return node_T_[k];
+  node_exact_[k] = true;
   if (k == 0) return node_T_[k] = -1.0;  // p = 0: no condensed phase
   const double p = static_cast<double>(k) * node_step_Pa;
-  if (hints_ok_ && have_liquid_ && node_ref_[k] > 0.0) {
+  if (!exact && hints_ok_ && have_liquid_ && node_ref_[k] > 0.0) {
     // One warm liquid-like trial just above the previous analysis's dew temperature.
     const double Tb = node_ref_[k] + 1.0;
     const auto lt = ph::detail::liquid_trial(dry_, wilson_, Tb, p, &liquid_, ph::PhaseOptions{}, work_);
     if (lt.valid && lt.tpd > 1e-9 && !lt.feed_liquid) {
       liquid_ = lt.W;
+      node_exact_[k] = false;  // a bound
       return node_T_[k] = Tb;
     }
   }
@@ -82,18 +85,37 @@ double PhaseCheck::node(std::size_t k) noexcept {
   return node_T_[k] = d.outcome == ph::DewOutcome::none_at_pressure ? -1.0 : -2.0;
 }
 
-PhaseCheckResult PhaseCheck::check(double T_K, double p_Pa) noexcept {
+void PhaseCheck::near_dew(PhaseCheckResult& r, double T_K, double p_Pa, double near_K) noexcept {
+  const double kf = p_Pa / node_step_Pa;
+  if (!(kf >= 0.0 && kf + 1.0 < static_cast<double>(n_nodes))) {
+    r.near_dew = true;  // beyond the node grid: not known, the safe side
+    return;
+  }
+  const auto k = static_cast<std::size_t>(kf);
+  const double a = node(k, true), b = node(k + 1, true);
+  if (a <= -2.0 || b <= -2.0) {
+    r.near_dew = true;  // a dew temperature could not be computed: the safe side
+    return;
+  }
+  if (a > 0.0 && b > 0.0) r.T_dew_K = a + (b - a) * (kf - static_cast<double>(k));
+  else if (a > 0.0 || b > 0.0) r.T_dew_K = std::max(a, b);  // the cricondenbar lies between the nodes
+  else return;                                               // above the cricondenbar: no dew point
+  r.near_dew = T_K < r.T_dew_K + near_K;
+}
+
+PhaseCheckResult PhaseCheck::check(double T_K, double p_Pa, double near_K) noexcept {
   PhaseCheckResult r;
   if (!applies_) return r;
+  if (!(near_K > 0.0) || !std::isfinite(near_K)) near_K = 0.0;
   if (!cct_tried_ && nodes_computed_ > nodes_before_cricondentherm) (void)cricondentherm();
   const bool have_cct = cct_tried_ && cct_.status.ok();
-  if (have_cct && (!cct_.found || T_K > cct_.T_K + margin_K)) {
+  if (have_cct && (!cct_.found || T_K > cct_.T_K + std::max(margin_K, near_K))) {
     // No dew point at any pressure, or hotter than the cricondentherm: single-phase.
     r.verdict = PhaseVerdict::single_phase;
     r.by_comparison = true;
     return r;
   }
-  if (full_tests_ >= states_before_nodes || hints_ok_) {
+  if (near_K > 0.0 || full_tests_ >= states_before_nodes || hints_ok_) {
     // The dew temperatures at the pressure nodes around p.
     const double kf = p_Pa / node_step_Pa;
     if (kf >= 0.0 && kf + 1.0 < static_cast<double>(n_nodes)) {
@@ -105,6 +127,7 @@ PhaseCheckResult PhaseCheck::check(double T_K, double p_Pa) noexcept {
       if (a > -2.0 && b > -2.0 && T_K > std::max(a, b) + margin_K && (a > 0.0 || b > 0.0 || none_ok)) {
         r.verdict = PhaseVerdict::single_phase;
         r.by_comparison = true;
+        if (near_K > 0.0 && T_K < std::max(a, b) + near_K) near_dew(r, T_K, p_Pa, near_K);
         return r;
       }
     }
@@ -115,6 +138,7 @@ PhaseCheckResult PhaseCheck::check(double T_K, double p_Pa) noexcept {
   if (st.unstable) r.verdict = PhaseVerdict::two_phase;
   else if (!st.status.ok()) r.verdict = PhaseVerdict::undecided;
   else r.verdict = PhaseVerdict::single_phase;
+  if (r.verdict == PhaseVerdict::single_phase && near_K > 0.0) near_dew(r, T_K, p_Pa, near_K);
   return r;
 }
 

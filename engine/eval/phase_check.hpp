@@ -19,12 +19,21 @@
 //  * the cricondentherm, once more than `nodes_before_cricondentherm` nodes were needed
 //    (states spread over pressures): a state more than `margin_K` above it is single-phase
 //    (no two-phase state of the gas lies above its cricondentherm).
+// Near the dew point (check with near_K > 0): a single-phase state less than near_K above
+// the dew temperature at its pressure is reported near_dew. The dew temperature at p is the
+// linear interpolation of the searched dew temperatures at the two nodes around p (a node
+// known only as a bound is searched when the state lies within near_K of it; the
+// interpolation error is of order the curvature times (0.05 MPa)^2, a few mK); above the
+// cricondenbar at both nodes there is none (not near); where it cannot be computed the
+// state is reported near_dew (the safe side). With near_K > 0 the nodes are used from the
+// first state (a one-off state pays two dew searches instead of one stability test).
 // Preparing an analysis stays cheap and a one-off state pays only its own test.
 // Not thread-safe (the cache is per object). Does not allocate, does not throw.
 #pragma once
 
 #include <array>
 #include <cstdint>
+#include <limits>
 
 #include "core/composition.hpp"
 #include "core/status.hpp"
@@ -43,6 +52,8 @@ struct PhaseCheckResult {
   PhaseVerdict verdict = PhaseVerdict::not_applicable;
   bool by_comparison = false;  // settled by comparison with a cached dew temperature
   double tpd = 0.0;            // smallest tangent-plane distance found (when the test ran)
+  bool near_dew = false;       // single-phase, within near_K of the dew temperature at p
+  double T_dew_K = std::numeric_limits<double>::quiet_NaN();  // dew temperature at p, when it was needed
 };
 
 class PhaseCheck {
@@ -55,7 +66,9 @@ class PhaseCheck {
 
   // Returns the status of the water-free basis (not ok: the check does not apply).
   Status prepare(const Fractions<double>& x) noexcept;
-  [[nodiscard]] PhaseCheckResult check(double T_K, double p_Pa) noexcept;
+  // near_K: also say whether a single-phase state lies within near_K above the dew
+  // temperature at p (0: not asked).
+  [[nodiscard]] PhaseCheckResult check(double T_K, double p_Pa, double near_K = 0.0) noexcept;
   // The cricondentherm, computed now if not yet known; nullptr when it does not exist.
   [[nodiscard]] const gerg2008::phase::Cricondentherm<double>* cricondentherm() noexcept;
   [[nodiscard]] bool applies() const noexcept { return applies_; }
@@ -73,6 +86,7 @@ class PhaseCheck {
   // Dew temperature at node k (p = k node_step_Pa): NaN unknown, -1 none at that pressure,
   // -2 not computable (the full test is used there).
   std::array<double, n_nodes> node_T_{};
+  std::array<bool, n_nodes> node_exact_{};  // node_T_ is a searched dew temperature, not a bound
   // Dew temperature of the node's last full search (kept across close analyses), and the
   // incipient liquid of the last search, the warm start of the trial phases.
   std::array<double, n_nodes> node_ref_{};
@@ -80,7 +94,9 @@ class PhaseCheck {
   bool have_liquid_ = false;
   gerg2008::phase::WilsonData<double> wilson_{};
   gerg2008::phase::PhaseState<double> work_{};
-  [[nodiscard]] double node(std::size_t k) noexcept;
+  [[nodiscard]] double node(std::size_t k, bool exact = false) noexcept;
+  // near_dew and T_dew_K of r for a single-phase state (T, p).
+  void near_dew(PhaseCheckResult& r, double T_K, double p_Pa, double near_K) noexcept;
 };
 
 }  // namespace zcorr
