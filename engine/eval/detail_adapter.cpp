@@ -33,6 +33,7 @@ class DetailMethod final : public LineMethod {
       const auto v = pc.verdict;
       if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
       if (v == PhaseVerdict::single_phase && pc.near_dew) out.status.flags |= flag::near_dew_point;
+      out.two_phase = v == PhaseVerdict::two_phase;
     }
     const Code c = r.status.code;
     // Refused or invalid: no numbers. No convergence: the last iterate, as the status says.

@@ -30,10 +30,12 @@ class Gerg2008Method final : public LineMethod {
     const auto s = gerg2008::state(prepared_, T_K, p_Pa, opt.solve, opt.derived);
     out.status = s.status;
     out.iterations = s.iterations;
+    out.two_phase = s.status.code == Code::two_phase;  // a pure fluid: the solver's own rule
     if (s.status.ok() && opt.phase_check) {
       const auto pc = phase_.check(T_K, p_Pa, opt.dew_margin_K);
       if (pc.verdict == PhaseVerdict::two_phase) {
         out.status.code = Code::two_phase;
+        out.two_phase = true;
         return out;
       }
       if (pc.verdict == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;

@@ -57,6 +57,10 @@ struct StateOutput {
   std::array<double, static_cast<std::size_t>(Quantity::count)> q;
   Status status{};
   int iterations = 0;
+  // The GERG-2008 phase test (EvalOptions::phase_check) found the state two-phase: gerg2008
+  // says so in its code (Code::two_phase, no Z); the other methods keep their code and Z
+  // with flag::dew_point_suspected. The recorder stops the conversion for such a state.
+  bool two_phase = false;
 
   StateOutput() { q.fill(std::numeric_limits<double>::quiet_NaN()); }
   [[nodiscard]] double operator[](Quantity k) const noexcept { return q[static_cast<std::size_t>(k)]; }

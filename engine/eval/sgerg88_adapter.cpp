@@ -101,6 +101,7 @@ class GrossLineMethod : public LineMethod {
       const auto v = pc.verdict;
       if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
       if (v == PhaseVerdict::single_phase && pc.near_dew) out.status.flags |= flag::near_dew_point;
+      out.two_phase = v == PhaseVerdict::two_phase;
     }
     const double rho = s.rho_mol_per_L;  // kmol/m3 = mol/L
     out[Quantity::Z] = s.Z;
