@@ -794,3 +794,82 @@ TEST(Gerg2008LineState, NearDewStatesAreStable) {
   }
   EXPECT_GT(near, 20);
 }
+
+// The reference shortcut of the phase check (eval/phase_check.hpp): for an analysis close to
+// the reference one (every fraction within 25 %), a state is settled without a trial phase
+// when it lies more than ref_gap_K (10 K) plus twice the rise of the Wilson dew temperature
+// above the reference's dew temperatures. That bound is engineering judgement; this checks it
+// against the engine's own dew search over perturbed gases (the eight reference gases, the
+// rich test gas and the 12-component sample gas; perturbations invented for the test, among
+// them every C3+ fraction raised by 24 %): the lowest settled temperature lies at least half
+// the gap above the perturbed gas's own dew temperature, and is stable by the full test.
+TEST(Gerg2008LineState, ReferenceBoundHoldsForCloseAnalyses) {
+  std::vector<std::pair<std::string, Fractions<double>>> gases{{"rich", rich_gas()}, {"sample12", samples::pipeline_gas_12()}};
+  for (const char* g : {"G05", "G10", "G15", "G20", "G25", "G30", "G33", "G38"}) gases.emplace_back(g, reference_gas(g));
+  std::uint32_t seed = 12345u;
+  auto uniform = [&seed] {  // in [-1, 1]
+    seed = seed * 1664525u + 1013904223u;
+    return static_cast<double>(seed >> 8) / static_cast<double>(1u << 24) * 2.0 - 1.0;
+  };
+  double least_spare = 1e9;
+  int settled = 0, not_close = 0;
+  for (const auto& [name, ref] : gases) {
+    for (int v = 0; v < 6; ++v) {
+      Fractions<double> x = ref;
+      for (std::size_t i = 0; i < max_components; ++i) {
+        const bool heavy = ph::is_hydrocarbon(static_cast<std::uint8_t>(i)) && i != index(Component::methane) &&
+                           i != index(Component::ethane);
+        x[i] *= v == 0 ? (heavy ? 1.24 : 1.0) : 1.0 + 0.24 * uniform();
+      }
+      double sum = 0;
+      for (double f : x) sum += f;
+      for (double& f : x) f /= sum;
+      PhaseCheck pc;
+      ASSERT_TRUE(pc.prepare(ref).ok());
+      ASSERT_TRUE(pc.is_reference());
+      ASSERT_TRUE(pc.prepare(x).ok());
+      if (pc.is_reference()) {  // not close (the renormalisation moved a fraction beyond 25 %): a new reference
+        ++not_close;
+        continue;
+      }
+      const auto px = prep<double>(x);
+      for (double P : {0.101325e6, 0.8e6, 2.0e6, 3.3e6, 4.6e6, 6.2e6, 8.1e6}) {
+        double T_set = 0;
+        for (double T = 180.0; T <= 340.0; T += 0.25)
+          if (pc.settled_by_reference(T, P, 0.0)) {
+            T_set = T;
+            break;
+          }
+        if (T_set == 0) continue;  // the shortcut does not apply there (steep dew line, no dew point)
+        ++settled;
+        const auto d = ph::dew_temperature(px, P);
+        ASSERT_TRUE(d.outcome == ph::DewOutcome::found || d.outcome == ph::DewOutcome::none_at_pressure) << name << " " << P;
+        EXPECT_FALSE(ph::stability(px, T_set, P).unstable) << name << " " << v << " " << P;
+        if (d.outcome != ph::DewOutcome::found) continue;
+        const double spare = T_set - d.T_K;
+        least_spare = std::min(least_spare, spare);
+        EXPECT_GE(spare, pc.ref_gap_K / 2) << name << " variant " << v << " at " << P << " Pa: settled from " << T_set
+                                           << " K, dew temperature " << d.T_K << " K";
+      }
+    }
+  }
+  std::printf("reference shortcut: %d gas/pressure pairs settled (%d variants not close), least spare above the dew "
+              "temperature %.2f K\n", settled, not_close, least_spare);
+  EXPECT_GT(settled, 120);
+}
+
+// The same analysis prepared again keeps what was cached: no search repeated (the second
+// round of states is settled by comparison, as the first ended).
+TEST(Gerg2008LineState, PreparingTheSameAnalysisAgainKeepsTheCache) {
+  PhaseCheck pc;
+  const auto x = reference_gas("G05");
+  ASSERT_TRUE(pc.prepare(x).ok());
+  for (int k = 0; k < 5; ++k) (void)pc.check(285.0 + k, 4e6, 5.0);
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto t0 = std::chrono::steady_clock::now();
+  const auto r = pc.check(286.5, 4.01e6, 5.0);
+  const double us = std::chrono::duration<double, std::micro>(std::chrono::steady_clock::now() - t0).count();
+  EXPECT_TRUE(r.by_comparison);
+  EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
+  std::printf("a state of the same analysis prepared again: %.1f us\n", us);
+}
