@@ -11,6 +11,13 @@
 // detail method, 2.09 s with GERG-2008 (2.8-4.0 s while a compiler ran on
 // both cores). The replay thread is the longer of the two (about half of it
 // is the method's state at the averages); the chain check runs beside it.
+// The phase check (BM_Audit_week/year_15min_analyses_PhaseOn/Off: GERG-2008, a new analysis
+// every 15 minutes, target on <= 1.2 x off), measured 2026-12-02 22:19 UTC, Release, load
+// 0.1-0.6 (uptime before and after): week (10,080 intervals, 673 analyses) 43.4 ms on,
+// 37.1 ms off (1.17 x; on was 249 ms before the reference-analysis shortcut of
+// eval/phase_check.hpp, with 40.8 ms off); year (525,600 intervals, 35,041 analyses) 1.91 s
+// on, 1.86 s off (1.03 x). The rest of the week's extra is the reference's dew searches, once
+// per audit (some 5 ms).
 // Peak resident memory of `zcorr audit` on the year: 15 MB. A correction set
 // over the year takes 8.1 s (verify first, then one transaction); the
 // corrected log (1,051,200 interval records) audits in 4.3 s.
