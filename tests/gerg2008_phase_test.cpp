@@ -873,3 +873,44 @@ TEST(Gerg2008LineState, PreparingTheSameAnalysisAgainKeepsTheCache) {
   EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
   std::printf("a state of the same analysis prepared again: %.1f us\n", us);
 }
+
+// The flash's Newton stage: started after three substitution steps instead of forty, it
+// reaches the split that substitution alone reaches (same vapour fraction and phases to the
+// flash tolerance), with the exact material balance and equal fugacities; also a hair below
+// the dew line (vapour fraction above 0.9999). Identities of the code, no outside value.
+TEST(Gerg2008Flash, NewtonStageReachesTheSubstitutionSplit) {
+  struct Case {
+    const char* gas;
+    double T_K, p_Pa;
+  };
+  std::vector<Case> cases;
+  for (const auto& t : shared_two_phase) cases.push_back({t.gas, t.T_K, t.p_Pa});
+  for (const char* g : {"G05", "G20"}) {
+    const auto d = ph::dew_temperature(prep<double>(reference_gas(g)), 3e6);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found);
+    cases.push_back({g, d.T_K - 0.01, 3e6});
+  }
+  for (const auto& c : cases) {
+    const auto p = prep<double>(reference_gas(c.gas));
+    const auto st = ph::stability(p, c.T_K, c.p_Pa);
+    ASSERT_TRUE(st.unstable) << c.gas << " " << c.T_K;
+    ph::PhaseOptions ss, nw;
+    ss.flash_ss_before_newton = ss.max_flash + 1;  // substitution only
+    nw.flash_ss_before_newton = 3;
+    const auto a = ph::flash(p, c.T_K, c.p_Pa, st, ss);
+    const auto b = ph::flash(p, c.T_K, c.p_Pa, st, nw);
+    ASSERT_TRUE(a.status.ok()) << c.gas << " " << c.T_K;
+    ASSERT_TRUE(b.status.ok()) << c.gas << " " << c.T_K << " " << code_name(b.status.code);
+    EXPECT_NEAR(b.beta, a.beta, 1e-9) << c.gas << " " << c.T_K;
+    EXPECT_LT(b.balance, 1e-15);
+    EXPECT_NEAR(b.Z_liquid, a.Z_liquid, 1e-8);
+    EXPECT_NEAR(b.Z_vapour, a.Z_vapour, 1e-10);
+    ph::PhaseState<double> L, V;
+    ASSERT_TRUE(ph::evaluate_phase(b.x, c.T_K, c.p_Pa, ph::Root::stable, L, SolveOptions{}).ok());
+    ASSERT_TRUE(ph::evaluate_phase(b.y, c.T_K, c.p_Pa, ph::Root::stable, V, SolveOptions{}).ok());
+    for (std::size_t i = 0; i < max_components; ++i)
+      if (p.x[i] > 0.0) EXPECT_NEAR(std::log(b.x[i]) + L.ln_phi[i], std::log(b.y[i]) + V.ln_phi[i], 1e-9) << component_name(i);
+    std::printf("%s %.3f K %.0f kPa: beta %.10f, substitution %d iterations, with Newton %d\n", c.gas, c.T_K, c.p_Pa / 1e3, b.beta,
+                a.iterations, b.iterations);
+  }
+}
