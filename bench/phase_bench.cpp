@@ -17,6 +17,16 @@
 // Audit of the demo week (672 analyses, 10,080 intervals, zcorr audit): 0.22 s with the
 // check, 0.05 s without (most of it the two trial phases per analysis). Under load 5 (other
 // builds on both cores) the runs took 1.5-2x as long.
+// Measured again 2026-12-02 22:20 UTC after the reference-analysis shortcut (eval/phase_check.hpp:
+// close analyses settled by the reference's dew temperatures, no trial phase), Release, the same
+// machine at load 0.2-0.4 (uptime before and after), median of 3, CPU time:
+//   dew point at 5 MPa 1.29 ms, at 1 MPa 0.855 ms; cricondentherm 15.1 ms; cricondentherm +
+//   cricondenbar 151 ms; full stability test of a single-phase state 158 us;
+//   line state phase check on 2.50 us, off 2.49 us; below the cricondentherm 2.84 us;
+//   a new (close) analysis and its first 15 states 0.034 ms (was 0.34 ms).
+// zcorr audit of the demo week (scripts/demo.sh log, 5 runs at load 0.5): 0.04-0.05 s wall
+// (was 0.22 s; 0.05 s without the check as measured before). The audit with and without the
+// check: bench/audit_bench.cpp, BM_Audit_*_15min_analyses_*.
 #include <benchmark/benchmark.h>
 
 #include "eval/line_method.hpp"

@@ -38,6 +38,7 @@ struct AuditCliOptions {
   std::int64_t wi_analysis = 0;
   double max_age_h = 840;
   double tolerance_ppm = audit::recalculation_bar_ppm;
+  std::string dew_margin;  // kelvin, "3" or "3 K"; empty: the contract's, else 5 K
   Format format = Format::text;
 };
 
@@ -86,6 +87,13 @@ int run_audit_cmd(const AuditCliOptions& o) {
   if (!(o.tolerance_ppm >= 0)) throw io::InputError("--tolerance-ppm", std::to_string(o.tolerance_ppm), "ppm >= 0");
   ao.max_analysis_age_h = o.max_age_h;
   ao.tolerance_ppm = o.tolerance_ppm;
+  if (!o.dew_margin.empty()) {
+    std::string t(io::trim(o.dew_margin));
+    if (t.size() > 1 && t.back() == 'K') t = std::string(io::trim(std::string_view(t).substr(0, t.size() - 1)));
+    const double v = io::parse_number(t, "--dew-margin");
+    if (!(v >= 0.0 && v <= 50.0)) throw io::InputError("--dew-margin", o.dew_margin, "a temperature difference from 0 K to 50 K");
+    ao.dew_margin_K = v;
+  }
 
   if (!o.wi_method.empty()) ao.what_if.method = o.wi_method;
   if (!o.seal_key.empty()) ao.seal_key = record::load_seal_key(o.seal_key, "--seal-key");
@@ -181,6 +189,8 @@ int run_audit_cmd(const AuditCliOptions& o) {
     j["snapshot_head_seq"] = r.head_seq;
     j["head_hash"] = r.head_hash_hex;
     j["replayed_by"] = record::engine_version();
+    j["dew_margin_K"] = r.dew_margin_K;
+    j["dew_margin_source"] = r.dew_margin_source;
     j["written_by"] = nlohmann::json::array();
     for (const auto& [v, n] : r.engine_versions) j["written_by"].push_back({{"engine_version", v}, {"intervals", n}});
     j["written_by_another_engine"] = written_by_another_engine(r);
@@ -251,7 +261,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
                                {"worst_ppm", json_num(f.worst_ppm)},
                                {"detail", f.detail}});
     for (std::size_t k = 0; k < r.findings.size(); ++k)
-      if (r.findings[k].kind == Kind::alarm) {
+      if (r.findings[k].kind == Kind::alarm || r.findings[k].kind == Kind::two_phase) {
         j["findings"][k]["alarm_time_s"] = r.findings[k].alarm_time_s;
         j["findings"][k]["V_fault_m3"] = r.findings[k].V_fault_m3;
       }
@@ -348,7 +358,7 @@ int run_audit_cmd(const AuditCliOptions& o) {
         if (std::isfinite(f.V_b_difference_ppm())) std::cout << " (" << fixed(f.V_b_difference_ppm(), 1) << " ppm)";
         std::cout << ", E " << diff_text(f.E_difference_MJ, f.difference_estimated) << " MJ";
         if (f.kind == Kind::calc_difference) std::cout << "; largest deviation " << fixed(f.worst_ppm, 1) << " ppm";
-        if (f.kind == Kind::alarm)
+        if (f.kind == Kind::alarm || f.kind == Kind::two_phase)
           std::cout << "\n      " << f.alarm_time_s << " s in alarm, fault volume " << fixed(f.V_fault_m3, 6) << " m3 (line)";
         std::cout << "\n      " << f.detail << "\n      difference: " << f.difference_basis << '\n';
       }
@@ -368,11 +378,14 @@ void setup_audit(CLI::App& app, int& exit_code) {
   sub->add_option("--from", opt->from, "Only intervals ending after this UTC time (2026-03-02T06:00:00Z)");
   sub->add_option("--to", opt->to, "Only intervals starting before this UTC time");
   sub->add_option("--contract", opt->contract,
-                  "Contract file: key = value lines point, method, base_T, base_p, tolerance_ppm (see --help footer)");
+                  "Contract file: key = value lines point, method, base_T, base_p, tolerance_ppm, dew_margin_K (see --help footer)");
   sub->add_option("--max-analysis-age", opt->max_age_h, "Largest allowed age of the gas analysis in force, hours")
       ->capture_default_str();
   sub->add_option("--tolerance-ppm", opt->tolerance_ppm, "Allowed recalculation difference, ppm (API 21.1 bar: 50)")
       ->capture_default_str();
+  sub->add_option("--dew-margin", opt->dew_margin,
+                  "near_dew_point findings: averaged line states less than this many kelvin above the hydrocarbon dew "
+                  "temperature (default: the contract's dew_margin_K, else 5 K; 0 = none)");
   sub->add_option("--what-if-method", opt->wi_method, "What-if: recompute with this line method (totals side by side)");
   sub->add_option("--seal-key", opt->seal_key, "The key file the log was recorded with: a critical finding unless every seal is right "
                                              "and the log ends in one");
@@ -389,7 +402,9 @@ void setup_audit(CLI::App& app, int& exit_code) {
   add_format_option(*sub, opt->format);
   sub->footer(
       "\nFinding kinds: broken_chain, totals_mismatch, gap, overlap, duplicate, stale_analysis, contract_mismatch,\n"
-      "outside_method_range, calc_difference, config_without_event, not_replayed, alarm.\n"
+      "outside_method_range, calc_difference, config_without_event, not_replayed, alarm, two_phase (a line state\n"
+      "the GERG-2008 phase test finds two-phase: an alarm condition, critical), near_dew_point (an averaged line\n"
+      "state less than the dew margin above the hydrocarbon dew temperature, warning; water is not assessed).\n"
       "Severities: notice (listed; leaves the exit status alone, e.g. an alarm the configuration handled as\n"
       "designed), warning, critical. Each finding has two figures of base volume and energy: affected (the\n"
       "logged figures of its records) and difference (recomputed or estimated minus logged, signed; estimates\n"
@@ -397,7 +412,7 @@ void setup_audit(CLI::App& app, int& exit_code) {
       "A base-condition what-if keeps a stated Hs at its own combustion reference and computes a missing Hs at\n"
       "the reference usually paired with the new base temperature; --what-if-combustion-ref hold keeps the\n"
       "recorded one for every Hs, a temperature sets one. The energy difference is split by cause.\n"
-      "Contract file example:\n  point = ST-1\n  method = gerg2008\n  base_T = 15 degC\n  base_p = 101.325 kPa\n\n"
+      "Contract file example:\n  point = ST-1\n  method = gerg2008\n  base_T = 15 degC\n  base_p = 101.325 kPa\n  dew_margin_K = 5\n\n"
       "--report FILE.html writes one HTML file with no outside references (inline CSS and SVG charts of the replay\n"
       "deviation and the base volume over time); the normal output still goes to standard output.\n\n"
       "Exit status: 0 nothing above a notice, 1 warning or critical findings, 2 the log cannot be read.\n\n" +

@@ -8,7 +8,9 @@
 // input.
 //
 // GERG-2008 mixture states are checked for phase stability (eval/phase_check.hpp); a
-// two-phase state gets status two_phase and no Z.
+// two-phase state gets status two_phase and no Z; a single-phase state less than the dew
+// margin (--dew-margin, default 5 K) above the dew temperature at its pressure carries
+// near_dew_point in its status (every method, when a full analysis is given).
 //
 // Gross-characterization methods (sgerg88, gross1, gross2) also take their
 // gross inputs: as options in single-state mode (--Hs, --d, --x-co2, --x-h2,
@@ -44,7 +46,20 @@ struct ZOptions {
   std::string input;
   std::vector<std::string> columns;
   bool derived = false;
+  std::string dew_margin;  // kelvin; empty = EvalOptions::default_dew_margin_K
   Format format = Format::text;
+  // The evaluation options with the dew margin asked for.
+  [[nodiscard]] EvalOptions eval(bool with_derived) const {
+    EvalOptions e = method.eval_options(with_derived);
+    if (!dew_margin.empty()) {
+      std::string t(io::trim(dew_margin));
+      if (t.size() > 1 && t.back() == 'K') t = std::string(io::trim(std::string_view(t).substr(0, t.size() - 1)));
+      const double v = io::parse_number(t, "--dew-margin");
+      if (!(v >= 0.0 && v <= 50.0)) throw io::InputError("--dew-margin", dew_margin, "a temperature difference from 0 K to 50 K");
+      e.dew_margin_K = v;
+    }
+    return e;
+  }
 };
 
 std::optional<Quantity> quantity_from_name(const std::string& n) {
@@ -91,7 +106,8 @@ int run_single(const ZOptions& o) {
                          {"d", gi.d}, {"x_CO2", gi.x_CO2}, {"x_H2", gi.x_H2}, {"x_N2", gi.x_N2}})
     if (!std::isnan(v)) gross_shown.emplace_back(name, v);
   StateOutput out;
-  if (prep.ok()) out = method->state(T, p, o.method.eval_options(true));
+  const EvalOptions eopt = o.eval(true);
+  if (prep.ok()) out = method->state(T, p, eopt);
   else out.status = prep;
   const bool computed = out.status.ok();
   if (o.format == Format::json) {
@@ -146,6 +162,10 @@ int run_single(const ZOptions& o) {
     if (out.status.code == Code::two_phase && id == MethodId::gerg2008)
       std::cout << "note     not single-phase gas at this state (below its dew point; see zcorr dewpoint):\n"
                    "         no Z is given, the metered volume and energy are not those of the gas\n";
+    if (out.status.has(flag::near_dew_point))
+      std::cout << "note     single-phase, but less than " << io::format_sig(eopt.dew_margin_K, 6)
+                << " K above the hydrocarbon dew temperature at this pressure\n"
+                   "         (near_dew_point; see zcorr dewpoint, --dew-margin sets the margin)\n";
   }
   if (!computed) {
     std::cerr << "zcorr z: not computed: " << status_text(out.status) << '\n';
@@ -204,7 +224,7 @@ int run_batch(const ZOptions& o) {
   for (auto q : extras) out_header.emplace_back(quantity_names[static_cast<std::size_t>(q)]);
   io::write_csv_row(std::cout, out_header);
   const auto copt = o.gas.composition_options();
-  const auto eopt = o.method.eval_options(o.derived || !extras.empty());
+  const auto eopt = o.eval(o.derived || !extras.empty());
   Fractions<double> last{};
   bool have_last = false;
   Status last_prep{};
@@ -283,6 +303,9 @@ void setup_z(CLI::App& app, int& exit_code) {
   sub->add_option("--input", opt->input, "Batch CSV (T_K, P_kPa, component columns); '-' for standard input");
   sub->add_option("--columns", opt->columns, "Extra CSV columns, e.g. B_cm3_per_mol,w_m_per_s,kappa")->delimiter(',');
   sub->add_flag("--derived", opt->derived, "Compute derived properties in batch mode");
+  sub->add_option("--dew-margin", opt->dew_margin,
+                  "Flag near_dew_point on a single-phase state less than this many kelvin above the hydrocarbon "
+                  "dew temperature at its pressure (GERG-2008 test of a full analysis; default 5 K, 0 = off)");
   add_format_option(*sub, opt->format);
   sub->footer(
       "\nExamples:\n"

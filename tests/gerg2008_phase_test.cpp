@@ -727,3 +727,190 @@ TEST(Gerg2008LineState, OtherMethodsFlagTwoPhaseStates) {
     EXPECT_FALSE(m->state(288.15, 5e6, EvalOptions{}).status.has(flag::dew_point_suspected)) << method_name(id);
   }
 }
+
+// The near-dew flag: a single-phase state less than EvalOptions::dew_margin_K above the dew
+// temperature at its pressure is flagged near_dew_point, one further above is not, and the
+// margin is the option's. The dew temperatures are this engine's own (dew_temperature at the
+// state's pressure, between the pressure nodes of the cache); no outside value.
+TEST(Gerg2008LineState, NearDewFlagWithinTheMarginAboveTheDewTemperature) {
+  const auto x = reference_gas("G05");
+  const auto p = prep<double>(x);
+  for (double P : {2.0e6, 2.037e6, 4.55e6}) {
+    const auto d = ph::dew_temperature(p, P);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found) << P;
+    for (auto id : {MethodId::gerg2008, MethodId::detail}) {
+      auto m = make_line_method(id);
+      ASSERT_TRUE(m->prepare(x).ok());
+      EvalOptions e;  // default margin 5 K
+      ASSERT_EQ(e.dew_margin_K, 5.0);
+      e.solve.allow_outside_range = true;  // detail: keep its expanded-range refusals out of the way
+      const auto near = m->state(d.T_K + 2.0, P, e);
+      EXPECT_EQ(near.status.code, Code::ok) << method_name(id) << " " << P;
+      EXPECT_TRUE(near.status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_TRUE(near.has(Quantity::Z));
+      // just inside and just outside the margin (the interpolation between nodes is good to mK)
+      EXPECT_TRUE(m->state(d.T_K + 4.95, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_FALSE(m->state(d.T_K + 5.05, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      EXPECT_FALSE(m->state(d.T_K + 8.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      e.dew_margin_K = 10.0;
+      EXPECT_TRUE(m->state(d.T_K + 8.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      e.dew_margin_K = 0.0;
+      EXPECT_FALSE(m->state(d.T_K + 2.0, P, e).status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+      // below the dew temperature: two-phase (gerg2008) or dew_point_suspected, never near_dew_point
+      const auto below = m->state(d.T_K - 2.0, P, EvalOptions{});
+      EXPECT_FALSE(below.status.has(flag::near_dew_point)) << method_name(id) << " " << P;
+    }
+  }
+  // The check gives the dew temperature it compared with.
+  PhaseCheck pc;
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto d = ph::dew_temperature(p, 2.037e6);
+  const auto r = pc.check(d.T_K + 1.0, 2.037e6, 5.0);
+  EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
+  EXPECT_TRUE(r.near_dew);
+  EXPECT_NEAR(r.T_dew_K, d.T_K, 0.01);
+  // Far above: settled without the dew temperature being needed, not near.
+  const auto far = pc.check(330.0, 2.037e6, 5.0);
+  EXPECT_EQ(far.verdict, PhaseVerdict::single_phase);
+  EXPECT_FALSE(far.near_dew);
+}
+
+// A state flagged near the dew point is never unstable by the full test (grid over G05, near
+// the dew line and through it).
+TEST(Gerg2008LineState, NearDewStatesAreStable) {
+  const auto x = reference_gas("G05");
+  const auto p = prep<double>(x);
+  auto m = make_line_method(MethodId::gerg2008);
+  ASSERT_TRUE(m->prepare(x).ok());
+  int near = 0;
+  for (double P = 1.03e6; P <= 8e6; P += 0.87e6) {
+    for (double T = 255.0; T <= 285.0; T += 1.1) {
+      const auto out = m->state(T, P, EvalOptions{});
+      if (!out.status.has(flag::near_dew_point)) continue;
+      ++near;
+      EXPECT_TRUE(out.status.ok());
+      EXPECT_FALSE(ph::stability(p, T, P).unstable) << T << " " << P;
+    }
+  }
+  EXPECT_GT(near, 20);
+}
+
+// The reference shortcut of the phase check (eval/phase_check.hpp): for an analysis close to
+// the reference one (every fraction within 25 %), a state is settled without a trial phase
+// when it lies more than ref_gap_K (10 K) plus twice the rise of the Wilson dew temperature
+// above the reference's dew temperatures. That bound is engineering judgement; this checks it
+// against the engine's own dew search over perturbed gases (the eight reference gases, the
+// rich test gas and the 12-component sample gas; perturbations invented for the test, among
+// them every C3+ fraction raised by 24 %): the lowest settled temperature lies at least half
+// the gap above the perturbed gas's own dew temperature, and is stable by the full test.
+TEST(Gerg2008LineState, ReferenceBoundHoldsForCloseAnalyses) {
+  std::vector<std::pair<std::string, Fractions<double>>> gases{{"rich", rich_gas()}, {"sample12", samples::pipeline_gas_12()}};
+  for (const char* g : {"G05", "G10", "G15", "G20", "G25", "G30", "G33", "G38"}) gases.emplace_back(g, reference_gas(g));
+  std::uint32_t seed = 12345u;
+  auto uniform = [&seed] {  // in [-1, 1]
+    seed = seed * 1664525u + 1013904223u;
+    return static_cast<double>(seed >> 8) / static_cast<double>(1u << 24) * 2.0 - 1.0;
+  };
+  double least_spare = 1e9;
+  int settled = 0, not_close = 0;
+  for (const auto& [name, ref] : gases) {
+    for (int v = 0; v < 6; ++v) {
+      Fractions<double> x = ref;
+      for (std::size_t i = 0; i < max_components; ++i) {
+        const bool heavy = ph::is_hydrocarbon(static_cast<std::uint8_t>(i)) && i != index(Component::methane) &&
+                           i != index(Component::ethane);
+        x[i] *= v == 0 ? (heavy ? 1.24 : 1.0) : 1.0 + 0.24 * uniform();
+      }
+      double sum = 0;
+      for (double f : x) sum += f;
+      for (double& f : x) f /= sum;
+      PhaseCheck pc;
+      ASSERT_TRUE(pc.prepare(ref).ok());
+      ASSERT_TRUE(pc.is_reference());
+      ASSERT_TRUE(pc.prepare(x).ok());
+      if (pc.is_reference()) {  // not close (the renormalisation moved a fraction beyond 25 %): a new reference
+        ++not_close;
+        continue;
+      }
+      const auto px = prep<double>(x);
+      for (double P : {0.101325e6, 0.8e6, 2.0e6, 3.3e6, 4.6e6, 6.2e6, 8.1e6}) {
+        double T_set = 0;
+        for (double T = 180.0; T <= 340.0; T += 0.25)
+          if (pc.settled_by_reference(T, P, 0.0)) {
+            T_set = T;
+            break;
+          }
+        if (T_set == 0) continue;  // the shortcut does not apply there (steep dew line, no dew point)
+        ++settled;
+        const auto d = ph::dew_temperature(px, P);
+        ASSERT_TRUE(d.outcome == ph::DewOutcome::found || d.outcome == ph::DewOutcome::none_at_pressure) << name << " " << P;
+        EXPECT_FALSE(ph::stability(px, T_set, P).unstable) << name << " " << v << " " << P;
+        if (d.outcome != ph::DewOutcome::found) continue;
+        const double spare = T_set - d.T_K;
+        least_spare = std::min(least_spare, spare);
+        EXPECT_GE(spare, pc.ref_gap_K / 2) << name << " variant " << v << " at " << P << " Pa: settled from " << T_set
+                                           << " K, dew temperature " << d.T_K << " K";
+      }
+    }
+  }
+  std::printf("reference shortcut: %d gas/pressure pairs settled (%d variants not close), least spare above the dew "
+              "temperature %.2f K\n", settled, not_close, least_spare);
+  EXPECT_GT(settled, 120);
+}
+
+// The same analysis prepared again keeps what was cached: no search repeated (the second
+// round of states is settled by comparison, as the first ended).
+TEST(Gerg2008LineState, PreparingTheSameAnalysisAgainKeepsTheCache) {
+  PhaseCheck pc;
+  const auto x = reference_gas("G05");
+  ASSERT_TRUE(pc.prepare(x).ok());
+  for (int k = 0; k < 5; ++k) (void)pc.check(285.0 + k, 4e6, 5.0);
+  ASSERT_TRUE(pc.prepare(x).ok());
+  const auto t0 = std::chrono::steady_clock::now();
+  const auto r = pc.check(286.5, 4.01e6, 5.0);
+  const double us = std::chrono::duration<double, std::micro>(std::chrono::steady_clock::now() - t0).count();
+  EXPECT_TRUE(r.by_comparison);
+  EXPECT_EQ(r.verdict, PhaseVerdict::single_phase);
+  std::printf("a state of the same analysis prepared again: %.1f us\n", us);
+}
+
+// The flash's Newton stage: started after three substitution steps instead of forty, it
+// reaches the split that substitution alone reaches (same vapour fraction and phases to the
+// flash tolerance), with the exact material balance and equal fugacities; also a hair below
+// the dew line (vapour fraction above 0.9999). Identities of the code, no outside value.
+TEST(Gerg2008Flash, NewtonStageReachesTheSubstitutionSplit) {
+  struct Case {
+    const char* gas;
+    double T_K, p_Pa;
+  };
+  std::vector<Case> cases;
+  for (const auto& t : shared_two_phase) cases.push_back({t.gas, t.T_K, t.p_Pa});
+  for (const char* g : {"G05", "G20"}) {
+    const auto d = ph::dew_temperature(prep<double>(reference_gas(g)), 3e6);
+    ASSERT_EQ(d.outcome, ph::DewOutcome::found);
+    cases.push_back({g, d.T_K - 0.01, 3e6});
+  }
+  for (const auto& c : cases) {
+    const auto p = prep<double>(reference_gas(c.gas));
+    const auto st = ph::stability(p, c.T_K, c.p_Pa);
+    ASSERT_TRUE(st.unstable) << c.gas << " " << c.T_K;
+    ph::PhaseOptions ss, nw;
+    ss.flash_ss_before_newton = ss.max_flash + 1;  // substitution only
+    nw.flash_ss_before_newton = 3;
+    const auto a = ph::flash(p, c.T_K, c.p_Pa, st, ss);
+    const auto b = ph::flash(p, c.T_K, c.p_Pa, st, nw);
+    ASSERT_TRUE(a.status.ok()) << c.gas << " " << c.T_K;
+    ASSERT_TRUE(b.status.ok()) << c.gas << " " << c.T_K << " " << code_name(b.status.code);
+    EXPECT_NEAR(b.beta, a.beta, 1e-9) << c.gas << " " << c.T_K;
+    EXPECT_LT(b.balance, 1e-15);
+    EXPECT_NEAR(b.Z_liquid, a.Z_liquid, 1e-8);
+    EXPECT_NEAR(b.Z_vapour, a.Z_vapour, 1e-10);
+    ph::PhaseState<double> L, V;
+    ASSERT_TRUE(ph::evaluate_phase(b.x, c.T_K, c.p_Pa, ph::Root::stable, L, SolveOptions{}).ok());
+    ASSERT_TRUE(ph::evaluate_phase(b.y, c.T_K, c.p_Pa, ph::Root::stable, V, SolveOptions{}).ok());
+    for (std::size_t i = 0; i < max_components; ++i)
+      if (p.x[i] > 0.0) EXPECT_NEAR(std::log(b.x[i]) + L.ln_phi[i], std::log(b.y[i]) + V.ln_phi[i], 1e-9) << component_name(i);
+    std::printf("%s %.3f K %.0f kPa: beta %.10f, substitution %d iterations, with Newton %d\n", c.gas, c.T_K, c.p_Pa / 1e3, b.beta,
+                a.iterations, b.iterations);
+  }
+}

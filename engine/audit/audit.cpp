@@ -33,6 +33,8 @@ std::string_view kind_name(Kind k) noexcept {
     case Kind::config_without_event: return "config_without_event";
     case Kind::not_replayed: return "not_replayed";
     case Kind::alarm: return "alarm";
+    case Kind::two_phase: return "two_phase";
+    case Kind::near_dew_point: return "near_dew_point";
   }
   return "?";
 }
@@ -173,8 +175,14 @@ Contract parse_contract(std::string_view text, std::string_view source) {
       if (end == value.c_str() || *end != '\0' || !(v >= 0) || !std::isfinite(v))
         throw io::InputError(field, value, "a number of ppm >= 0");
       c.tolerance_ppm = v;
+    } else if (key == "dew_margin_K") {
+      char* end = nullptr;
+      const double v = std::strtod(value.c_str(), &end);
+      if (end == value.c_str() || *end != '\0' || !(v >= 0 && v <= 50))
+        throw io::InputError(field, value, "a temperature difference from 0 to 50 (kelvin)");
+      c.dew_margin_K = v;
     } else {
-      throw io::InputError(where, key, "known keys: point, method, base_T, base_p, tolerance_ppm");
+      throw io::InputError(where, key, "known keys: point, method, base_T, base_p, tolerance_ppm, dew_margin_K");
     }
   }
   return c;
@@ -290,7 +298,23 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
     while (s.step()) corrected.insert(s.i64(0));
   }
   const MethodFactory what_if_methods = methods;
-  Replayer rp(log, std::move(methods), {}, {}, head);
+  // The near_dew_point margin: the option, else the contract's (for its point, or every
+  // point), else the default.
+  EvalOptions replay_eval;
+  std::optional<std::pair<std::string, double>> contract_point_margin;
+  if (opt.dew_margin_K) {
+    if (!(*opt.dew_margin_K >= 0 && *opt.dew_margin_K <= 50))
+      throw io::InputError("dew margin", num(*opt.dew_margin_K) + " K", "a temperature difference from 0 K to 50 K");
+    replay_eval.dew_margin_K = *opt.dew_margin_K;
+    res.dew_margin_source = "option";
+  } else if (opt.contract && opt.contract->dew_margin_K) {
+    if (opt.contract->point) contract_point_margin.emplace(*opt.contract->point, *opt.contract->dew_margin_K);
+    else replay_eval.dew_margin_K = *opt.contract->dew_margin_K;
+    res.dew_margin_source = opt.contract->point ? "contract (point " + *opt.contract->point + "; others the default)" : "contract";
+  }
+  res.dew_margin_K = contract_point_margin ? contract_point_margin->second : replay_eval.dew_margin_K;
+  Replayer rp(log, std::move(methods), replay_eval, {}, head);
+  if (contract_point_margin) rp.set_dew_margin(contract_point_margin->first, contract_point_margin->second);
   std::map<std::int64_t, std::string> contract_diff;  // config seq -> differences ("" = none)
   auto contract_check = [&](std::int64_t config_seq, const std::string& point) -> const std::string& {
     auto it = contract_diff.find(config_seq);
@@ -467,6 +491,7 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
       have_prev = true;
     }
 
+    const double sub_C_before = sub_C, sub_Hs_before = sub_Hs;
     // Alarms: the conversion stopped for part or all of the interval.
     if (iv.flags & record::iflag::alarm) {
       const double V_fault = static_cast<double>(iv.V_fault_um3) * record::volume_quantum_m3;
@@ -481,6 +506,8 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
                 ((iv.flags & record::iflag::p_out_of_range) && (iv.flags & record::iflag::T_out_of_range) ? ", " : "") +
                 ((iv.flags & record::iflag::T_out_of_range) ? "temperature" : "") +
                 ((iv.flags & record::iflag::bad_input) ? " bad input row" : "") + ")";
+      } else if (iv.flags & record::iflag::two_phase) {
+        cause = "a two-phase line state (GERG-2008 phase test)";
       } else if (iv.flags & record::iflag::calc_failed) {
         cause = "a line state the method refused";
       } else {
@@ -563,6 +590,39 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
                  unknown("not known: no validated result of the method to compare with there (another method: --what-if-method)"), 0,
                  "the averaged state (p " + num(iv.p_avg_Pa) + " Pa, T " + num(iv.T_avg_K) + " K) is " + why + " (" +
                      r.calc_status + ")");
+    }
+    // The phase of the line state: two-phase (as the recorder logged it, or found again at
+    // the averaged state) or, recomputed with the audit's margin, near the dew point.
+    if ((iv.flags | r.flags) & record::iflag::two_phase) {
+      const double V_fault = static_cast<double>(iv.V_fault_um3) * record::volume_quantum_m3;
+      Figures f;
+      f.V_affected = Vb;
+      f.E_affected = E;
+      f.V_difference = V_fault > 0 ? V_fault * sub_C_before : 0.0;
+      f.E_difference = V_fault > 0 ? f.V_difference * (std::isfinite(sub_Hs_before) ? sub_Hs_before : r.Hs) : 0.0;
+      f.estimated = V_fault > 0;
+      f.basis = std::isfinite(sub_C_before) || V_fault == 0
+                    ? "the base volume a substitution would give for the fault volume (the conversion factor C and Hs of the last "
+                      "converting interval before); the volume converted at a two-phase state has no recomputation to compare with"
+                    : "no converting interval before it to take a substitution factor from";
+      const bool logged = (iv.flags & record::iflag::two_phase) != 0;
+      AuditFinding& a = runs.add(Kind::two_phase, Severity::critical, logged ? "logged" : "replay", iv, f, 0,
+                                 std::string(logged ? "the recorder found a line state two-phase" : "the averaged line state is two-phase") +
+                                     " by the GERG-2008 phase test (below the hydrocarbon dew point of the analysis in force, water left "
+                                     "out): liquid in the line, the metered volume is not that of the gas (" + r.calc_status + ")");
+      a.V_fault_m3 += V_fault;
+      a.alarm_time_s += iv.alarm_time_s;
+    } else if (r.flags & record::iflag::near_dew_point) {
+      Figures f;
+      f.V_affected = Vb;
+      f.E_affected = E;
+      f.V_difference = f.E_difference = 0;
+      f.basis = "converted as logged: the state is single-phase; the affected figures are what a colder line would put at stake";
+      runs.add(Kind::near_dew_point, Severity::warning, "near", iv, f, 0,
+               "the averaged line state (p " + num(iv.p_avg_Pa) + " Pa, T " + num(iv.T_avg_K) + " K) lies less than " +
+                   num(contract_point_margin && iv.point != contract_point_margin->first ? EvalOptions::default_dew_margin_K
+                                                                                         : res.dew_margin_K) + " K above the hydrocarbon dew temperature at its pressure (GERG-2008 phase test of the "
+                   "analysis in force, water left out)");
     }
     // The recalculation.
     const double worst = r.worst_ppm();

@@ -21,6 +21,16 @@
 //   alarm                intervals with the conversion stopped (an input out of range or
 //                        unreadable, a state the method refused, no usable analysis): their
 //                        duration, fault volume and the base volume a substitution would give
+//   two_phase            intervals with a line state the GERG-2008 phase test finds two-phase
+//                        (logged by the recorder, iflag::two_phase, or found again at the
+//                        averaged state): an alarm condition, critical
+//   near_dew_point       intervals whose averaged line state, recomputed, lies less than the
+//                        dew margin above the hydrocarbon dew temperature at its pressure
+//                        (single-phase, converted): a warning
+// The phase check runs on the analysis in force with every method (GERG-2008 on that
+// analysis, water left out). The dew margin: AuditOptions::dew_margin_K (zcorr audit
+// --dew-margin), else the contract's dew_margin_K for the points it applies to, else 5 K
+// (EvalOptions::default_dew_margin_K). The point configuration has no margin of its own yet.
 // Consecutive intervals with the same kind and cause form one finding.
 //
 // The two figures of every finding (base volume V_b in m3 and energy in MJ):
@@ -41,6 +51,9 @@
 //      totals_mismatch  the sum of the intervals minus the record's total
 //      alarm            the fault volume times the conversion factor of the
 //                       last converting interval before it (a substitution)
+//      two_phase        the same substitution for its fault volume (the converted
+//                       volume of a two-phase state has no recomputation to compare with)
+//      near_dew_point   0 (converted as logged; the finding says what is at stake)
 //
 // Severity: notice (listed, leaves the exit status alone: an alarm the
 // configuration handled as designed), warning, critical.
@@ -51,6 +64,8 @@
 //   base_T  = 15 degC      contractual base temperature (units as in the point configuration)
 //   base_p  = 101.325 kPa  contractual base pressure, absolute
 //   tolerance_ppm = 1      allowed relative difference of base_T and base_p (default 1 ppm)
+//   dew_margin_K  = 5      near_dew_point margin above the hydrocarbon dew temperature, kelvin
+//                          (0 to 50; default 5 K)
 #pragma once
 
 #include <cstdint>
@@ -77,9 +92,11 @@ enum class Kind {
   calc_difference,
   config_without_event,
   not_replayed,
-  alarm
+  alarm,
+  two_phase,
+  near_dew_point
 };
-inline constexpr std::size_t kind_count = 12;
+inline constexpr std::size_t kind_count = 14;
 [[nodiscard]] std::string_view kind_name(Kind k) noexcept;
 
 enum class Severity { notice, warning, critical };
@@ -102,7 +119,7 @@ struct AuditFinding {
   std::string difference_basis;  // how the difference was obtained, or why it is not known
   double worst_ppm = 0;          // calc_difference: the largest deviation of Z_f, Z_b, C, V_b or energy
   std::int64_t alarm_time_s = 0; // alarm: time with the conversion stopped
-  double V_fault_m3 = 0;         // alarm: line volume counted in the fault register
+  double V_fault_m3 = 0;         // alarm, two_phase: line volume counted in the fault register
   std::string detail;
   // The differences in ppm of the affected figures (NaN when either is not known or nothing is affected).
   [[nodiscard]] double V_b_difference_ppm() const noexcept;
@@ -115,6 +132,7 @@ struct Contract {
   std::optional<std::string> method;
   std::optional<double> base_T_K, base_p_Pa;
   double tolerance_ppm = 1.0;
+  std::optional<double> dew_margin_K;  // near_dew_point margin, kelvin
 };
 // Throws io::InputError naming the line.
 [[nodiscard]] Contract parse_contract(std::string_view text, std::string_view source);
@@ -137,6 +155,8 @@ struct AuditOptions {
   std::optional<Contract> contract;
   double max_analysis_age_h = 840;     // 35 days (common practice: a monthly spot sample, with margin)
   double tolerance_ppm = recalculation_bar_ppm;
+  // The near_dew_point margin in kelvin; unset: the contract's, else EvalOptions::default_dew_margin_K.
+  std::optional<double> dew_margin_K;
   std::size_t max_chain_findings = 1000;
   // A head kept outside the log (record::Anchor): the verifier's findings say when the log no longer holds it.
   std::optional<record::Anchor> expected_head;
@@ -168,6 +188,9 @@ struct AuditResult {
   [[nodiscard]] std::size_t counting() const noexcept;
   ReplayTotals replay;
   std::int64_t records = 0;          // chained records checked
+  double dew_margin_K = EvalOptions::default_dew_margin_K;  // the near_dew_point margin used (the contract's point: see dew_margin_source)
+  std::string dew_margin_source = "default";                // "option", "contract" or "default"
+
   std::int64_t head_seq = 0;         // the snapshot: every record read is at or before this chain position
   std::string log_id;
   std::string head_hash_hex;

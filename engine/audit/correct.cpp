@@ -41,7 +41,8 @@ std::int64_t now_utc_s() {
 
 // Bits that follow from the method and the gas; the rest (alarms, input) stay as logged.
 constexpr std::int64_t method_bits = record::iflag::calc_failed | record::iflag::no_analysis | record::iflag::energy_missing |
-                                     record::iflag::mass_missing | record::iflag::extrapolated | record::iflag::expanded_range;
+                                     record::iflag::mass_missing | record::iflag::extrapolated | record::iflag::expanded_range |
+                                     record::iflag::two_phase | record::iflag::near_dew_point;
 
 }  // namespace
 
@@ -219,7 +220,7 @@ CorrectionOutcome write_correction_set(const std::filesystem::path& file, const 
       row[i_rE] = r.E_J;
       row[i_rm] = r.mass_mg;
       // The fault volume stays as logged, and so do the bits that say why.
-      const std::int64_t kept = iv.V_fault_um3 > 0 ? (iv.flags & (record::iflag::calc_failed | record::iflag::no_analysis)) : 0;
+      const std::int64_t kept = iv.V_fault_um3 > 0 ? (iv.flags & (record::iflag::calc_failed | record::iflag::no_analysis | record::iflag::two_phase)) : 0;
       row[i_flags] = (iv.flags & ~method_bits) | (r.flags & method_bits) | kept;
       if (r.V_b_um3 == 0 && iv.V_f_um3 > 0) ++out.unconverted;
       row[i_status] = r.calc_status;

@@ -105,6 +105,7 @@ void read_logged_interval(const record::Stmt& s, LoggedInterval& iv) {
 Replayer::Replayer(const record::Log& log, MethodFactory methods, EvalOptions eval, WhatIf what_if, std::int64_t head_seq)
     : log_(log), factory_(std::move(methods)), eval_(eval), what_if_(std::move(what_if)), head_seq_(head_seq) {
   using record::Stmt;
+  dew_margin_default_K_ = eval_.dew_margin_K;
   {
     const auto pc = log_.columns(record::Table::point_config);  // those of the log's schema version
     std::string sql = "SELECT ";
@@ -155,6 +156,10 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     return r;
   }
   record::PointConfig cfg = cit->second;
+  if (!dew_margin_by_point_.empty()) {
+    const auto mit = dew_margin_by_point_.find(iv.point);
+    eval_.dew_margin_K = mit != dew_margin_by_point_.end() ? mit->second : dew_margin_default_K_;
+  }
   if (what_if_.method) cfg.method = *what_if_.method;
   if (what_if_.base_T_K) cfg.base_T_K = *what_if_.base_T_K;
   if (what_if_.base_p_Pa) cfg.base_p_Pa = *what_if_.base_p_Pa;

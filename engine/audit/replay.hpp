@@ -181,6 +181,9 @@ class Replayer {
   [[nodiscard]] const std::map<std::int64_t, record::PointConfig>& configs() const noexcept { return configs_; }
   [[nodiscard]] const std::map<std::int64_t, GasRecord>& analyses() const noexcept { return analyses_; }
   [[nodiscard]] const ReplayTotals& totals() const noexcept { return totals_; }
+  // The near_dew_point margin (EvalOptions::dew_margin_K) of the states of one point; the
+  // others keep the one of the EvalOptions given.
+  void set_dew_margin(const std::string& point, double margin_K) { dew_margin_by_point_[point] = margin_K; }
 
  private:
   LineMethod* method_for(const std::string& name);
@@ -199,6 +202,8 @@ class Replayer {
   std::int64_t gas_config_ = -1, gas_analysis_ = -1;
   record::GasInForce gas_;
   ReplayTotals totals_;
+  std::map<std::string, double> dew_margin_by_point_;
+  double dew_margin_default_K_ = EvalOptions::default_dew_margin_K;
 };
 
 // The columns of a LoggedInterval, in the order read_logged_interval() reads them.

@@ -678,7 +678,7 @@ void findings_section(std::ostream& o, const AuditResult& r) {
       << "</td><td class=\"n\">" << diff(f.E_difference_MJ) << "</td><td class=\"n\">"
       << (f.kind == Kind::calc_difference ? ppm_text(f.worst_ppm) : std::string("\u2014")) << "</td></tr><tr class=\"detail sev-"
       << sev << "\"><td></td><td class=\"detail\" colspan=\"13\">" << esc(f.detail);
-    if (f.kind == Kind::alarm)
+    if (f.kind == Kind::alarm || f.kind == Kind::two_phase)
       o << "; " << f.alarm_time_s << " s in alarm, fault volume " << num(f.V_fault_m3, 6) << " m\u00b3 (line)";
     o << ". <em>Difference:</em> " << esc(f.difference_basis) << (f.difference_estimated ? " (an estimate)" : "") << "</td></tr></tbody>";
   }

@@ -5,6 +5,7 @@
 
 #include "core/base_conditions.hpp"
 #include "eval/line_method.hpp"
+#include "methods/gerg2008_phase.hpp"
 #include "methods/iso6976.hpp"
 #include "io/composition_parse.hpp"
 #include "io/input_error.hpp"
@@ -128,6 +129,21 @@ std::map<std::string, double> kind_iso6976(const RefCase& c) {
           {"Wi_MJ_per_m3", r.Wi_MJ_per_m3},   {"doubtful_data", r.status.has(flag::doubtful_data) ? 1.0 : 0.0}};
 }
 
+// kind = dew_point: `composition`, `p` (with unit); result T_dew_K, the highest hydrocarbon
+// dew temperature at p of the water-free gas by GERG-2008 (methods/gerg2008_phase.hpp).
+// A state above the cricondenbar (no dew point) or a failed search is an error of the case.
+std::map<std::string, double> kind_dew_point(const RefCase& c) {
+  auto comp = io::parse_composition_list(c.input("composition"), composition_options(c));
+  const double p = io::parse_pressure_Pa(c.input("p"), "p");
+  gerg2008::Prepared<double> dry;
+  const auto st = gerg2008::phase::prepare_dry(comp.x, dry);
+  if (!st.ok()) throw io::InputError("composition", c.input("composition"), std::string("refused: ") + code_name(st.code));
+  const auto d = gerg2008::phase::dew_temperature(dry, p);
+  if (d.outcome != gerg2008::phase::DewOutcome::found)
+    throw io::InputError("p", c.input("p"), "a pressure with a dew point (none found: above the cricondenbar or no convergence)");
+  return {{"T_dew_K", d.T_K}};
+}
+
 // The registry: one line per kind.
 const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
   static const std::vector<std::pair<std::string_view, KindFn>> table{
@@ -136,6 +152,7 @@ const std::vector<std::pair<std::string_view, KindFn>>& kinds() {
       {"gross", kind_gross},
       {"correction", kind_correction},
       {"iso6976", kind_iso6976},
+      {"dew_point", kind_dew_point},
   };
   return table;
 }

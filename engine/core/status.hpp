@@ -39,6 +39,9 @@ inline constexpr std::uint16_t dew_point_suspected = 1u << 1;   // may be below 
 inline constexpr std::uint16_t sum_not_unity = 1u << 2;         // mole fractions do not sum to 1 exactly
 inline constexpr std::uint16_t iteration_cap = 1u << 3;         // iteration cap reached
 inline constexpr std::uint16_t doubtful_data = 1u << 4;         // a component datum is of lower confidence
+// A single-phase state within EvalOptions::dew_margin_K above the hydrocarbon dew temperature
+// at its pressure (GERG-2008 phase check on the water-free gas, eval/phase_check.hpp).
+inline constexpr std::uint16_t near_dew_point = 1u << 5;
 }  // namespace flag
 
 inline constexpr std::uint8_t no_component = 0xFF;

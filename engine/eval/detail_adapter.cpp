@@ -2,7 +2,8 @@
 // (methods/detail.hpp) behind the LineMethod interface, in double.
 // The full analysis is also checked with the GERG-2008 phase test (eval/phase_check.hpp):
 // a state that test finds two-phase (or cannot decide) keeps the method's own status code
-// and Z, with the flag dew_point_suspected.
+// and Z, with the flag dew_point_suspected; a single-phase state near the dew point gets
+// near_dew_point (EvalOptions::dew_margin_K).
 #include <memory>
 
 #include "eval/line_method.hpp"
@@ -28,8 +29,11 @@ class DetailMethod final : public LineMethod {
     out.status = r.status;
     out.iterations = r.iterations;
     if (r.status.ok() && opt.phase_check) {
-      const auto v = phase_.check(T_K, p_Pa).verdict;
+      const auto pc = phase_.check(T_K, p_Pa, opt.dew_margin_K);
+      const auto v = pc.verdict;
       if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+      if (v == PhaseVerdict::single_phase && pc.near_dew) out.status.flags |= flag::near_dew_point;
+      out.two_phase = v == PhaseVerdict::two_phase;
     }
     const Code c = r.status.code;
     // Refused or invalid: no numbers. No convergence: the last iterate, as the status says.

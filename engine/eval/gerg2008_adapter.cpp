@@ -3,7 +3,8 @@
 // A mixture state the density solver finds is also checked for phase stability
 // (eval/phase_check.hpp): a state the tangent-plane test finds two-phase gets
 // Code::two_phase and no Z; one the test cannot decide keeps its Z with the flag
-// dew_point_suspected. Pure fluids keep the solver's own rule (two_phase where the
+// dew_point_suspected; a single-phase state within EvalOptions::dew_margin_K above the
+// dew temperature at its pressure gets the flag near_dew_point. Pure fluids keep the solver's own rule (two_phase where the
 // denser root has the lower Gibbs energy, no_gas_root past the spinodal).
 #include <memory>
 
@@ -29,13 +30,16 @@ class Gerg2008Method final : public LineMethod {
     const auto s = gerg2008::state(prepared_, T_K, p_Pa, opt.solve, opt.derived);
     out.status = s.status;
     out.iterations = s.iterations;
+    out.two_phase = s.status.code == Code::two_phase;  // a pure fluid: the solver's own rule
     if (s.status.ok() && opt.phase_check) {
-      const auto pc = phase_.check(T_K, p_Pa);
+      const auto pc = phase_.check(T_K, p_Pa, opt.dew_margin_K);
       if (pc.verdict == PhaseVerdict::two_phase) {
         out.status.code = Code::two_phase;
+        out.two_phase = true;
         return out;
       }
       if (pc.verdict == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+      if (pc.verdict == PhaseVerdict::single_phase && pc.near_dew) out.status.flags |= flag::near_dew_point;
     }
     const bool usable = s.status.ok() || s.status.code == Code::no_convergence;
     if (!usable) return out;

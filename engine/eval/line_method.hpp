@@ -57,6 +57,10 @@ struct StateOutput {
   std::array<double, static_cast<std::size_t>(Quantity::count)> q;
   Status status{};
   int iterations = 0;
+  // The GERG-2008 phase test (EvalOptions::phase_check) found the state two-phase: gerg2008
+  // says so in its code (Code::two_phase, no Z); the other methods keep their code and Z
+  // with flag::dew_point_suspected. The recorder stops the conversion for such a state.
+  bool two_phase = false;
 
   StateOutput() { q.fill(std::numeric_limits<double>::quiet_NaN()); }
   [[nodiscard]] double operator[](Quantity k) const noexcept { return q[static_cast<std::size_t>(k)]; }
@@ -79,6 +83,10 @@ struct EvalOptions {
   // GERG-2008: test mixture states for phase stability (eval/phase_check.hpp); a two-phase
   // state gets Code::two_phase and no Z. Off only for comparisons with the bare equation.
   bool phase_check = true;
+  // With the phase check: a single-phase state less than this many kelvin above the
+  // hydrocarbon dew temperature at its pressure gets flag::near_dew_point (0: not checked).
+  double dew_margin_K = default_dew_margin_K;
+  static constexpr double default_dew_margin_K = 5.0;
 };
 
 class LineMethod {

@@ -14,7 +14,8 @@
 // through Hs and d (they are lumped into the equivalent hydrocarbon and N2,
 // as the method does). With a full analysis the state is also checked with the GERG-2008
 // phase test (eval/phase_check.hpp): a state that test finds two-phase (or cannot decide)
-// keeps the method's own status code and Z, with the flag dew_point_suspected.
+// keeps the method's own status code and Z, with the flag dew_point_suspected; a single-phase state near the dew point gets
+// near_dew_point (EvalOptions::dew_margin_K).
 #include <cmath>
 #include <memory>
 
@@ -96,8 +97,11 @@ class GrossLineMethod : public LineMethod {
     out.iterations = s.iterations;
     if (!s.status.ok()) return out;
     if (from_composition_ && opt.phase_check) {
-      const auto v = phase_.check(T_K, p_Pa).verdict;
+      const auto pc = phase_.check(T_K, p_Pa, opt.dew_margin_K);
+      const auto v = pc.verdict;
       if (v == PhaseVerdict::two_phase || v == PhaseVerdict::undecided) out.status.flags |= flag::dew_point_suspected;
+      if (v == PhaseVerdict::single_phase && pc.near_dew) out.status.flags |= flag::near_dew_point;
+      out.two_phase = v == PhaseVerdict::two_phase;
     }
     const double rho = s.rho_mol_per_L;  // kmol/m3 = mol/L
     out[Quantity::Z] = s.Z;

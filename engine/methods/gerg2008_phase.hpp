@@ -38,8 +38,13 @@
 // Limits (said where they apply): the stability test, like every tangent-plane test from
 // finitely many trial phases, proves instability (a negative tm*) but not stability; its
 // trials are the Wilson vapour-like and liquid-like ones and one rich in the heaviest
-// component. The flash uses accelerated successive substitution only (no Newton stage):
-// close to a mixture critical point it may stop with no_convergence. The dew-point search
+// component. The flash runs accelerated successive substitution, then (when not converged
+// after flash_ss_before_newton steps) Newton on the Gibbs energy in the vapour mole numbers
+// (Michelsen & Mollerup, flash chapter, from memory: H_ij = [z_i/(x_i y_i) delta_ij - 1 +
+// (1 - beta) Phi^V_ij + beta Phi^L_ij] / (beta (1 - beta)), Phi_ij = n dln phi_i/dn_j, here by
+// forward differences of ln phi, each component moved in the phase that holds less of it)
+// with a line search on the Gibbs energy (where its change is below rounding, on the
+// gradient); close to a mixture critical point it may still stop with no_convergence. The dew-point search
 // follows the liquid-like trial down an isobar and stops where the feed itself turns
 // liquid, so it gives the upper (hydrocarbon) dew point and not bubble points or
 // liquid-liquid splits at cryogenic temperatures; the envelope is not traced through the
@@ -102,6 +107,8 @@ struct PhaseOptions {
   double trivial_tol = 1e-4;     // max |ln(w_i/z_i)| below which a trial is the feed itself
   double tpd_negative = -1e-10;  // tm below this is negative (unstable)
   int max_flash = 400;           // flash iterations
+  int flash_ss_before_newton = 40;  // successive substitution steps before the flash's Newton stage
+  int max_flash_newton = 30;     // Newton steps of the flash
   double flash_tol = 1e-10;      // on max |delta ln K| (ln phi carries ~1e-11 of rounding in double)
   int max_boundary = 80;         // iterations of a dew/saturation solve
 };
@@ -908,6 +915,132 @@ bool rachford_rice(const Prepared<S>& feed, const Fractions<S>& K, S& beta, int 
   return false;
 }
 
+namespace detail {
+
+// The flash's Newton stage (see the header): from the split (beta, x, y) with liq and vap
+// evaluated at x and y, Newton steps on the vapour mole numbers v_i = beta y_i (feed of one
+// mole), each with a line search that keeps 0 < v_i < z_i and lowers the Gibbs energy
+// G = sum v_i ln(y_i phi_i^V) + l_i ln(x_i phi_i^L) (where G's change is below its rounding,
+// the step must shrink the gradient instead). Converged when max |g_i| < flash_tol,
+// g_i = ln(y_i phi_i^V) - ln(x_i phi_i^L); then lnK_i = ln phi_i^L - ln phi_i^V (x, y, liq,
+// vap at the solution). Returns false when it does not converge.
+template <class S>
+bool flash_newton(const Prepared<S>& feed, const S& T_K, const S& p_Pa, const PhaseOptions& opt, S& beta, Fractions<S>& x,
+                  Fractions<S>& y, PhaseState<S>& liq, PhaseState<S>& vap, Fractions<S>& lnK, int& iterations) noexcept {
+  const std::size_t n = feed.n_active;
+  const auto& act = feed.active;
+  const S h = fd_step<S>();
+  auto gibbs = [&](const PhaseState<S>& L, const PhaseState<S>& V, const Fractions<S>& xx, const Fractions<S>& yy, const S& b) {
+    S G(0);
+    for (std::size_t a = 0; a < n; ++a) {
+      const std::size_t i = act[a];
+      G += b * yy[i] * (num::log_(yy[i]) + V.ln_phi[i]) + (S(1) - b) * xx[i] * (num::log_(xx[i]) + L.ln_phi[i]);
+    }
+    return G;
+  };
+  // Phi_ij = n dln phi_i / dn_j of a phase of composition w (one mole), by forward differences.
+  auto phi_matrix = [&](const Fractions<S>& w, const PhaseState<S>& at, std::array<S, max_components * max_components>& M) -> bool {
+    for (std::size_t b = 0; b < n; ++b) {
+      const std::size_t j = act[b];
+      const S d = h;  // absolute (one mole of phase): ln phi is smooth in n_j down to n_j = 0, and a step
+                      // relative to a trace n_j would drown in the rounding of ln phi
+      Fractions<S> wp = w;
+      wp[j] += d;
+      for (std::size_t a = 0; a < n; ++a) wp[act[a]] /= (S(1) + d);
+      PhaseState<S> st = at;
+      if (!evaluate_phase(wp, T_K, p_Pa, Root::stable, st, opt.solve, true).ok()) return false;
+      for (std::size_t a = 0; a < n; ++a) M[a * max_components + b] = (st.ln_phi[act[a]] - at.ln_phi[act[a]]) / d;
+    }
+    return true;
+  };
+  S G = gibbs(liq, vap, x, y, beta);
+  for (int it = 0; it < opt.max_flash_newton; ++it) {
+    ++iterations;
+    std::array<S, max_components> g{}, dv{};
+    S gmax(0);
+    for (std::size_t a = 0; a < n; ++a) {
+      const std::size_t i = act[a];
+      g[a] = num::log_(y[i]) + vap.ln_phi[i] - num::log_(x[i]) - liq.ln_phi[i];
+      if (num::abs_(g[a]) > gmax) gmax = num::abs_(g[a]);
+    }
+    if (gmax < S(opt.flash_tol)) {
+      for (std::size_t a = 0; a < n; ++a) lnK[act[a]] = liq.ln_phi[act[a]] - vap.ln_phi[act[a]];
+      return true;
+    }
+    std::array<S, max_components * max_components> PV{}, PL{}, H{};
+    if (!phi_matrix(y, vap, PV) || !phi_matrix(x, liq, PL)) return false;
+    const S bl = beta * (S(1) - beta);
+    for (std::size_t a = 0; a < n; ++a) {
+      const std::size_t i = act[a];
+      for (std::size_t b = 0; b < n; ++b) {
+        const S pv = (PV[a * max_components + b] + PV[b * max_components + a]) / S(2);
+        const S pl = (PL[a * max_components + b] + PL[b * max_components + a]) / S(2);
+        H[a * max_components + b] = ((a == b ? S(feed.x[i] / (x[i] * y[i])) : S(0)) - S(1) + (S(1) - beta) * pv + beta * pl) / bl;
+      }
+    }
+    std::array<S, max_components> rhs{};
+    for (std::size_t a = 0; a < n; ++a) rhs[a] = -g[a];
+    if (!solve_spd(H, n, rhs, dv)) return false;
+    // line search on G, 0 < v_i < z_i
+    S s(1);
+    bool accepted = false;
+    for (int ls = 0; ls < 30 && !accepted; ++ls, s = s / S(2)) {
+      // Each component moves in the amount of the phase that holds less of it (v_i or l_i =
+      // z_i - v_i): a trace in one phase keeps its digits.
+      Fractions<S> v{}, l{}, xn{}, yn{};
+      S V(0), Lm(0);
+      bool inside = true;
+      for (std::size_t a = 0; a < n && inside; ++a) {
+        const std::size_t i = act[a];
+        const S v0 = beta * y[i], l0 = (S(1) - beta) * x[i];
+        if (l0 < v0) {
+          l[i] = l0 - s * dv[a];
+          v[i] = feed.x[i] - l[i];
+        } else {
+          v[i] = v0 + s * dv[a];
+          l[i] = feed.x[i] - v[i];
+        }
+        inside = v[i] > S(0) && l[i] > S(0);
+        V += v[i];
+        Lm += l[i];
+      }
+      if (!inside) continue;
+      for (std::size_t a = 0; a < n; ++a) {
+        const std::size_t i = act[a];
+        yn[i] = v[i] / V;
+        xn[i] = l[i] / Lm;
+      }
+      V = V / (V + Lm);
+      PhaseState<S> Ln = liq, Vn = vap;
+      if (!evaluate_phase(xn, T_K, p_Pa, Root::stable, Ln, opt.solve, true).ok()) continue;
+      if (!evaluate_phase(yn, T_K, p_Pa, Root::stable, Vn, opt.solve, true).ok()) continue;
+      const S Gn = gibbs(Ln, Vn, xn, yn, V);
+      // Near the solution the change of G falls below its rounding: there the step must
+      // shrink the gradient instead (the trace components' directions barely move G).
+      S gn(0);
+      for (std::size_t a = 0; a < n; ++a) {
+        const std::size_t i = act[a];
+        const S e = num::abs_(S(num::log_(yn[i]) + Vn.ln_phi[i] - num::log_(xn[i]) - Ln.ln_phi[i]));
+        if (e > gn) gn = e;
+      }
+      const S noise = S(1e-13) * (S(1) + num::abs_(G));
+      if (Gn < G - noise || (Gn <= G + noise && gn < gmax)) {
+        G = Gn;
+        beta = V;
+        x = xn;
+        y = yn;
+        liq = Ln;
+        vap = Vn;
+        accepted = true;
+      }
+    }
+    if (!accepted) return false;
+  }
+  return false;
+}
+
+}  // namespace detail
+
 // (p, T) flash of the feed, started from the stability test's trial composition (call it
 // where stability() found the state unstable).
 template <class S>
@@ -971,6 +1104,37 @@ template <class S>
       }
       // The sums differ from 1 by the Rachford-Rice residual (amplified near beta = 0 or 1);
       // normalised, the balance error is that residual times the small phase's fraction.
+      for (std::size_t a = 0; a < feed.n_active; ++a) {
+        const std::size_t i = feed.active[a];
+        out.x[i] /= tx;
+        out.y[i] /= ty;
+        const S e = num::abs_(S(feed.x[i] - beta * out.y[i] - (S(1) - beta) * out.x[i]));
+        if (e > bal) bal = e;
+      }
+      out.balance = bal;
+      out.Z_liquid = liq.Z;
+      out.Z_vapour = vap.Z;
+      out.two_phase = beta > S(0) && beta < S(1);
+      out.status = Status{};
+      return out;
+    }
+    if (it + 1 >= opt.flash_ss_before_newton) {
+      // Newton stage from the current split; on success lnK holds the converged K.
+      if (!detail::flash_newton(feed, T_K, p_Pa, opt, beta, x, y, liq, vap, lnK, out.iterations)) {
+        out.status = make_status(Code::no_convergence);
+        return out;
+      }
+      for (std::size_t a = 0; a < feed.n_active; ++a) K[feed.active[a]] = num::exp_(lnK[feed.active[a]]);
+      rachford_rice(feed, K, beta, 200);
+      out.beta = beta;
+      S bal(0), tx(0), ty(0);
+      for (std::size_t a = 0; a < feed.n_active; ++a) {
+        const std::size_t i = feed.active[a];
+        out.x[i] = feed.x[i] / (S(1) + beta * (K[i] - S(1)));
+        out.y[i] = K[i] * out.x[i];
+        tx += out.x[i];
+        ty += out.y[i];
+      }
       for (std::size_t a = 0; a < feed.n_active; ++a) {
         const std::size_t i = feed.active[a];
         out.x[i] /= tx;

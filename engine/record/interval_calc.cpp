@@ -21,6 +21,12 @@ std::string status_string(const Status& s) {
   std::string out = code_name(s.code);
   if (s.range == RangeClass::expanded || s.range == RangeClass::outside) out += std::string(";range=") + range_name(s.range);
   if (s.has(flag::extrapolated)) out += ";extrapolated";
+  if (s.has(flag::near_dew_point)) out += ";near_dew_point";
+  return out;
+}
+std::string status_string(const StateOutput& st) {
+  std::string out = status_string(st.status);
+  if (st.two_phase && st.status.code != Code::two_phase) out += ";two_phase";  // a method that keeps its own code
   return out;
 }
 
@@ -28,6 +34,7 @@ std::int64_t range_flags(const Status& s) {
   std::int64_t f = 0;
   if (s.has(flag::extrapolated)) f |= iflag::extrapolated;
   if (s.range == RangeClass::expanded) f |= iflag::expanded_range;
+  if (s.has(flag::near_dew_point)) f |= iflag::near_dew_point;
   return f;
 }
 
@@ -87,7 +94,7 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
   Avg flowing{0, 0, 0, formulaic}, any{0, 0, 0, false};
   double I = 0, mass = 0;
   bool mass_ok = true;
-  Status first_bad{};
+  StateOutput first_bad{};
   bool have_bad = false;
   StateOutput single;  // the state of the only used sample (per_sample)
   for (const auto& s : samples) {
@@ -102,10 +109,12 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
     if (!s.alarm) any.add(static_cast<double>(s.dt_s), s.p_Pa, s.T_K);
     if (!alarm && V_f > 0 && per_sample) {
       const StateOutput st = method.state(s.T_K, s.p_Pa, eval);
-      if (!st.status.ok()) {
+      if (st.two_phase) r.flags |= iflag::two_phase;
+      if (!st.status.ok() || st.two_phase) {
+        // Refused, or two-phase by the phase test (a method that keeps its code): an alarm.
         alarm = true;
-        r.flags |= iflag::calc_failed;
-        if (!have_bad) { first_bad = st.status; have_bad = true; }
+        if (!st.status.ok()) r.flags |= iflag::calc_failed;
+        if (!have_bad) { first_bad = st; have_bad = true; }
       } else {
         r.flags |= range_flags(st.status);
         I += V_f * s.p_Pa / (s.T_K * st[Quantity::Z]);
@@ -147,6 +156,7 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
     if (per_sample && r.samples_used == 1) at_avg = single;
     else at_avg = method.state(r.T_avg_K, r.p_avg_Pa, eval);
     avg_ok = at_avg.status.ok();
+    if (at_avg.two_phase) r.flags |= iflag::two_phase;
     if (avg_ok) {
       r.Z_f = at_avg[Quantity::Z];
       r.Fp = r.p_avg_Pa / cfg.base_p_Pa;
@@ -155,7 +165,7 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
       r.flags |= range_flags(at_avg.status);
       if (at_avg.has(Quantity::rho_kg_per_m3)) r.rho_f_kg_per_m3 = at_avg[Quantity::rho_kg_per_m3];
     }
-    r.calc_status = status_string(at_avg.status);
+    r.calc_status = status_string(at_avg);
   } else if (!gas.usable) {
     r.calc_status = gas.status;
   } else {
@@ -163,12 +173,12 @@ IntervalResult compute_interval(std::span<const Sample> samples, const PointConf
   }
 
   if (!per_sample && r.V_conv_m3 > 0) {
-    if (avg_ok) {
+    if (avg_ok && !at_avg.two_phase) {
       I = r.V_conv_m3 * r.p_avg_Pa / (r.T_avg_K * r.Z_f);
       if (at_avg.has(Quantity::rho_kg_per_m3)) mass = at_avg[Quantity::rho_kg_per_m3] * r.V_conv_m3;
       else mass_ok = false;
-    } else {  // the method refused the averaged state: nothing converted
-      r.flags |= iflag::calc_failed | iflag::alarm;
+    } else {  // the method refused the averaged state, or it is two-phase: nothing converted
+      r.flags |= (avg_ok ? 0 : iflag::calc_failed) | iflag::alarm;
       r.V_fault_m3 += r.V_conv_m3;
       r.V_conv_m3 = 0;
       r.alarm_time_s = r.flow_time_s;

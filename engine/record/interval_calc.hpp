@@ -10,6 +10,13 @@
 // unconverted register (V_f_um3) and in the fault register (V_fault_um3),
 // never in the converted register (V_b_um3). This is how a conversion device
 // under MID annex MI-002 / EN 12405-1 behaves (from memory, medium-high).
+// A line state the GERG-2008 phase test finds two-phase (StateOutput::two_phase:
+// gerg2008 refuses it with Code::two_phase, the other methods keep their code and Z)
+// is an alarm condition in the same way: per_sample, the sample's volume goes to the
+// fault register; average_then_correct, the interval's (nothing converted). Such an
+// interval carries iflag::two_phase (with calc_failed where the method refused the
+// state); a single-phase state within the dew margin above the dew point
+// (EvalOptions::dew_margin_K) is converted and flagged iflag::near_dew_point.
 //
 // Averages (API MPMS 21.1 flow-dependent averaging, from memory, medium):
 // over the samples with flow (V_f > 0) and no alarm, weighted by duration

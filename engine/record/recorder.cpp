@@ -129,6 +129,9 @@ void Recorder::load_state() {
     Stmt c(db, "SELECT kind FROM event WHERE point = ? AND kind IN ('calc_failed', 'calc_ok') ORDER BY seq DESC LIMIT 1");
     c.bind(1, std::string_view(cfg_.point));
     calc_bad_ = c.step() && c.text(0) == "calc_failed";
+    Stmt t(db, "SELECT kind FROM event WHERE point = ? AND kind IN ('two_phase', 'single_phase') ORDER BY seq DESC LIMIT 1");
+    t.bind(1, std::string_view(cfg_.point));
+    two_phase_ = t.step() && t.text(0) == "two_phase";
   }
 }
 
@@ -372,6 +375,14 @@ void Recorder::close_interval() {
   if (calc_failed && !calc_bad_) event(cur_start_, "calc_failed", "alarm", "the method refused a state: " + r.calc_status);
   else if (!calc_failed && calc_bad_) event(cur_start_, "calc_ok", "info", "the method computes again");
   calc_bad_ = calc_failed;
+  const bool two_phase = (r.flags & iflag::two_phase) != 0;
+  if (two_phase && !two_phase_)
+    event(cur_start_, "two_phase", "alarm",
+          "line state two-phase by the GERG-2008 phase test (below the hydrocarbon dew point): conversion stopped for it (" +
+              r.calc_status + ")");
+  else if (!two_phase && two_phase_)
+    event(cur_start_, "single_phase", "info", "line state single-phase again (GERG-2008 phase test)");
+  two_phase_ = two_phase;
   const Registers reg{r.V_f_um3, r.V_b_um3, r.V_fault_um3, r.E_J, r.mass_mg};
   const auto at_limit = [](const Registers& x) {
     for (const std::int64_t v : {x.V_f, x.V_b, x.V_fault, x.E, x.m})

@@ -117,6 +117,7 @@ class Recorder {
   bool alarm_ = false;                // conversion currently stopped by an input alarm
   std::string alarm_cause_;
   bool calc_bad_ = false;
+  bool two_phase_ = false;            // the last interval had a two-phase line state
 
   bool in_interval_ = false;
   std::int64_t cur_start_ = 0, cur_end_ = 0, cur_flags_ = 0, cur_rows_ = 0;

@@ -215,6 +215,8 @@ inline constexpr std::int64_t bad_input = 1 << 8;        // an input row could n
 inline constexpr std::int64_t gap = 1 << 9;              // a sample covered more than one interval (data gap)
 inline constexpr std::int64_t extrapolated = 1 << 10;    // the method computed outside its range on request
 inline constexpr std::int64_t expanded_range = 1 << 11;  // a state in the method's expanded range only
+inline constexpr std::int64_t two_phase = 1 << 12;       // a line state two-phase by the GERG-2008 phase test (alarm)
+inline constexpr std::int64_t near_dew_point = 1 << 13;  // a line state within the dew margin above the dew point
 inline constexpr std::int64_t overflow = 1 << 14;        // a quantity beyond its register's range: the register saturated
 }  // namespace iflag
 

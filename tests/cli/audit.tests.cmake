@@ -39,7 +39,15 @@ if(EXISTS ${PROJECT_SOURCE_DIR}/engine/eval/gerg2008_adapter.cpp)
                  MATCH "intervals  60 \\(60 recomputed")
   zcorr_cli_test(NAME audit_demo_contract ARGS audit --db ${DEMO_DB} --contract ${AUDIT_DIR}/contract.txt EXPECT_EXIT 1
                  MATCH "contract_mismatch \\[critical\\] HF-1 2026-03-02T05:00:00Z .. 2026-03-05T11:00:00Z, 4680 interval.*base_p 101325 Pa \\(contract 101560 Pa\\)")
+  # The dew margin: the demo's line states lie some 40 K above the dew temperature of its gas
+  # (about 240 K at 4.1 MPa by zcorr dewpoint); with the widest margin (50 K) the audit lists them
+  # as near_dew_point (a warning: exit 1) with their volume; beyond 50 K is refused.
+  zcorr_cli_test(NAME audit_demo_dew_margin ARGS audit --db ${DEMO_DB} --dew-margin "50 K" --format json EXPECT_EXIT 1
+                 MATCH "\"dew_margin_K\": 50(\\.0)?,[^\n]*\n[^\n]*\"dew_margin_source\": \"option\".*\"V_b_m3_affected\": [1-9][0-9]+\\.[0-9]+,[^{}]*\"kind\": \"near_dew_point\"")
+  zcorr_cli_test(NAME audit_demo_dew_margin_bad ARGS audit --db ${DEMO_DB} --dew-margin 60 EXPECT_EXIT 2
+                 MATCH "--dew-margin[^\n]*60[^\n]*0 K to 50 K")
   set_tests_properties(cli.audit_demo_clean cli.audit_demo_alarm_json cli.audit_demo_json cli.audit_demo_range cli.audit_demo_contract
+                       cli.audit_demo_dew_margin cli.audit_demo_dew_margin_bad
                        PROPERTIES DEPENDS cli.demo_week)
   set_tests_properties(cli.audit_demo_contract PROPERTIES FIXTURES_REQUIRED cli_audit)
 endif()
