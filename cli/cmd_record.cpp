@@ -160,7 +160,7 @@ void setup_record(CLI::App& app, int& exit_code) {
       "  pressure (absolute | gauge), meter (volume | pulses), k_factor, meter_factor, interval (s),\n"
       "  contract_hour, utc_offset, averaging (time_linear | flow_linear | time_formulaic | flow_formulaic),\n"
       "  integration (per_sample | average_then_correct), p_min, p_max, T_min, T_max, volume_unit,\n"
-      "  energy_unit, max_flow (m3/h after the meter factor, default 1e6), note\n"
+      "  energy_unit, max_flow (m3/h after the meter factor, default 1e6), dew_margin (K, default 5), note\n"
       "Refused (exit 2, field named): base_T outside 200..400 K, base_p outside 10 kPa..1 MPa, p_min or\n"
       "T_min not above 0, a point id that is not UTF-8 text, max_flow not in (0, 1e9] m3/h.\n"
       "Each sample row closes a sub-period begun at the previous row; intervals are aligned to multiples\n"

@@ -126,7 +126,7 @@ TEST_F(AuditPhaseTest, RecorderFlagsTwoPhaseAsAnAlarmAndNearDewStates) {
 TEST_F(AuditPhaseTest, AuditListsTwoPhaseAndNearDewIntervalsWithTheVolumeAtStake) {
   const auto r = audit();
   EXPECT_EQ(r.dew_margin_K, 5.0);
-  EXPECT_EQ(r.dew_margin_source, "default");
+  EXPECT_EQ(r.dew_margin_source, "point configuration (5 K where it states none)");
   for (const auto& f : r.findings) EXPECT_NE(f.kind, Kind::calc_difference) << f.detail;  // the replay reproduces the log
   EXPECT_GT(r.counting(), 0u);
 
@@ -200,6 +200,38 @@ TEST_F(AuditPhaseTest, TheMarginComesFromTheOptionOrTheContract) {
   audit::AuditOptions bad;
   bad.dew_margin_K = -1.0;
   EXPECT_THROW((void)audit(bad), io::InputError);
+}
+
+TEST(AuditPhaseMargin, APointsOwnDewMarginGovernsTheRecorderAndTheAudit) {
+  // The same three hours recorded at a point configured with dew_margin 1 K:
+  // the hour 2 K above the dew point is not near it there, for the recorder
+  // and for the audit (which reads the point's margin from its configuration).
+  const std::int64_t t0 = *record::parse_time_utc("2026-03-02T06:00:00Z");
+  const double T_dew = dew_T_K();
+  const auto file = testing::temp_log("own_dew_margin");
+  {
+    record::Log log(file, {record::OpenMode::writer});
+    auto gerg = make_line_method(MethodId::gerg2008);
+    auto c = config("GERG-M", "gerg2008", record::Integration::average_then_correct);
+    c.dew_margin_K = 1.0;
+    testing::record_text(log, c, *gerg, samples(t0, T_dew, false), analyses(t0));
+  }
+  record::Log log(file, {record::OpenMode::read_only});
+  EXPECT_EQ(testing::scalar(log.db(), "SELECT dew_margin_K FROM point_config"), 1);
+  EXPECT_EQ(testing::scalar(log.db(), "SELECT count(*) FROM interval WHERE flags & " + std::to_string(record::iflag::near_dew_point)), 0);
+  EXPECT_EQ(testing::scalar(log.db(), "SELECT count(*) FROM interval WHERE flags & " + std::to_string(record::iflag::two_phase)), 30);
+  const auto r = audit::run_audit(log, {}, audit::built_in_methods());
+  for (const auto& f : r.findings) {
+    EXPECT_NE(f.kind, Kind::near_dew_point) << f.detail;
+    EXPECT_NE(f.kind, Kind::calc_difference) << f.detail;
+  }
+  // Asked for 5 K, the audit finds the hour the point's margin let through.
+  audit::AuditOptions o;
+  o.dew_margin_K = 5.0;
+  const auto r5 = audit::run_audit(log, o, audit::built_in_methods());
+  bool near = false;
+  for (const auto& f : r5.findings) near |= f.kind == Kind::near_dew_point;
+  EXPECT_TRUE(near);
 }
 
 }  // namespace

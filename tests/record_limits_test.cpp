@@ -75,6 +75,14 @@ TEST(ConfigLimits, MaxFlowIsReadCheckedAndDefaulted) {
   EXPECT_EQ(a.differences(b), std::vector<std::string>{"max_flow"});
 }
 
+TEST(ConfigLimits, DewMarginIsReadCheckedAndDefaulted) {
+  EXPECT_EQ(parse_point_config(good_config, "c").dew_margin_K, 5.0);
+  EXPECT_EQ(parse_point_config(good_config + "dew_margin = 2.5 K\n", "c").dew_margin_K, 2.5);
+  EXPECT_EQ(parse_point_config(good_config + "dew_margin = 0\n", "c").dew_margin_K, 0.0);
+  for (const char* bad : {"-1", "51 K", "warm"})
+    EXPECT_NE(refusal(good_config + "dew_margin = " + bad + "\n").find("dew_margin"), std::string::npos) << bad;
+}
+
 TEST(ConfigLimits, PointIdMustBeUtf8TextWithoutControlCharacters) {
   const std::string rest = "method = virial_test_gas\nbase = iso15\np_min = 1 MPa\np_max = 8 MPa\nT_min = -10 degC\nT_max = 50 degC\n";
   EXPECT_EQ(refusal("point = Zählerstrang-Ø\n" + rest), "");

@@ -355,8 +355,8 @@ TEST(RecordEncoding, ARecordClaimingAnotherEncodingBreaksTheChain) {
   const auto p = recorded_test_gas_log("claims");
   const auto iv = count(p, "SELECT seq FROM interval ORDER BY seq LIMIT 1 OFFSET 7");
   // A record of the latest encoding that says 1 (NULL) or 2, or names a version this log cannot hold.
-  static_assert(latest_encoding == 3, "claim the versions around the latest one");
-  for (const char* claim : {"NULL", "2", "4", "99"}) {
+  static_assert(latest_encoding == 4, "claim the versions around the latest one");
+  for (const char* claim : {"NULL", "3", "5", "99"}) {
     SCOPED_TRACE(claim);
     const auto c = tampered_copy(p, "claims_copy", "DROP TRIGGER interval_no_update; UPDATE interval SET canon_version = " +
                                                         std::string(claim) + " WHERE seq = " + std::to_string(iv));

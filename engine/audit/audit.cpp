@@ -315,6 +315,10 @@ AuditResult run_audit(const record::Log& log, const AuditOptions& opt, MethodFac
   res.dew_margin_K = contract_point_margin ? contract_point_margin->second : replay_eval.dew_margin_K;
   Replayer rp(log, std::move(methods), replay_eval, {}, head);
   if (contract_point_margin) rp.set_dew_margin(contract_point_margin->first, contract_point_margin->second);
+  if (!opt.dew_margin_K && !(opt.contract && opt.contract->dew_margin_K && !opt.contract->point)) {
+    rp.use_configured_dew_margin(true);  // each point's configured margin (the recorder's)
+    if (!contract_point_margin) res.dew_margin_source = "point configuration (5 K where it states none)";
+  }
   std::map<std::int64_t, std::string> contract_diff;  // config seq -> differences ("" = none)
   auto contract_check = [&](std::int64_t config_seq, const std::string& point) -> const std::string& {
     auto it = contract_diff.find(config_seq);

@@ -29,8 +29,9 @@
 //                        (single-phase, converted): a warning
 // The phase check runs on the analysis in force with every method (GERG-2008 on that
 // analysis, water left out). The dew margin: AuditOptions::dew_margin_K (zcorr audit
-// --dew-margin), else the contract's dew_margin_K for the points it applies to, else 5 K
-// (EvalOptions::default_dew_margin_K). The point configuration has no margin of its own yet.
+// --dew-margin), else the contract's dew_margin_K for the points it applies to, else each
+// point configuration's dew_margin_K (5 K, EvalOptions::default_dew_margin_K, in one
+// written before schema 7).
 // Consecutive intervals with the same kind and cause form one finding.
 //
 // The two figures of every finding (base volume V_b in m3 and energy in MJ):
@@ -189,7 +190,7 @@ struct AuditResult {
   ReplayTotals replay;
   std::int64_t records = 0;          // chained records checked
   double dew_margin_K = EvalOptions::default_dew_margin_K;  // the near_dew_point margin used (the contract's point: see dew_margin_source)
-  std::string dew_margin_source = "default";                // "option", "contract" or "default"
+  std::string dew_margin_source = "default";                // "option", "contract", "point configuration ..." or "default"
 
   std::int64_t head_seq = 0;         // the snapshot: every record read is at or before this chain position
   std::string log_id;

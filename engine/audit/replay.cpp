@@ -156,9 +156,11 @@ IntervalReplay Replayer::replay(const LoggedInterval& iv) {
     return r;
   }
   record::PointConfig cfg = cit->second;
-  if (!dew_margin_by_point_.empty()) {
+  if (!dew_margin_by_point_.empty() || dew_margin_from_config_) {
     const auto mit = dew_margin_by_point_.find(iv.point);
-    eval_.dew_margin_K = mit != dew_margin_by_point_.end() ? mit->second : dew_margin_default_K_;
+    eval_.dew_margin_K = mit != dew_margin_by_point_.end() ? mit->second
+                         : dew_margin_from_config_       ? cfg.dew_margin_K
+                                                         : dew_margin_default_K_;
   }
   if (what_if_.method) cfg.method = *what_if_.method;
   if (what_if_.base_T_K) cfg.base_T_K = *what_if_.base_T_K;

@@ -184,6 +184,9 @@ class Replayer {
   // The near_dew_point margin (EvalOptions::dew_margin_K) of the states of one point; the
   // others keep the one of the EvalOptions given.
   void set_dew_margin(const std::string& point, double margin_K) { dew_margin_by_point_[point] = margin_K; }
+  // The margin of each interval's own point configuration (dew_margin_K, 5 K
+  // in one written before schema 7) where no margin was set for its point.
+  void use_configured_dew_margin(bool on) { dew_margin_from_config_ = on; }
 
  private:
   LineMethod* method_for(const std::string& name);
@@ -204,6 +207,7 @@ class Replayer {
   ReplayTotals totals_;
   std::map<std::string, double> dew_margin_by_point_;
   double dew_margin_default_K_ = EvalOptions::default_dew_margin_K;
+  bool dew_margin_from_config_ = false;
 };
 
 // The columns of a LoggedInterval, in the order read_logged_interval() reads them.

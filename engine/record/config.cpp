@@ -50,6 +50,7 @@ std::vector<std::string> PointConfig::differences(const PointConfig& o) const {
   cmp("energy_unit", energy_unit == o.energy_unit);
   cmp("note", note == o.note);
   cmp("max_flow", max_flow_m3_per_h == o.max_flow_m3_per_h);
+  cmp("dew_margin", dew_margin_K == o.dew_margin_K);
   return d;
 }
 
@@ -156,6 +157,12 @@ PointConfig parse_point_config(std::string_view text, std::string_view source) {
       const double f = io::parse_number(v, field);
       if (!(f > 0 && f <= 1e9)) throw io::InputError(field, val, "a flow rate above 0 and at most 1e9 m3/h");
       c.max_flow_m3_per_h = f;
+    } else if (key == "dew_margin") {
+      std::string_view v = val;
+      if (v.ends_with("K")) v = io::trim(v.substr(0, v.size() - 1));
+      const double m = io::parse_number(v, field);
+      if (!(m >= 0 && m <= 50)) throw io::InputError(field, val, "a temperature difference from 0 K to 50 K");
+      c.dew_margin_K = m;
     } else throw io::InputError(where, key, "unknown key (see the point configuration format in `zcorr record --help`)");
   }
   const std::string src(source);
@@ -217,7 +224,8 @@ std::vector<Value> config_values(const PointConfig& c, std::int64_t valid_from) 
           Null{},
           std::string(engine_version()),
           Null{},   // canon_version (set by Log::append)
-          real(c.max_flow_m3_per_h)};
+          real(c.max_flow_m3_per_h),
+          real(c.dew_margin_K)};
 }
 
 PointConfig config_from_values(const std::vector<Value>& v) {
@@ -253,6 +261,8 @@ PointConfig config_from_values(const std::vector<Value>& v) {
   c.note = t(23);
   // max_flow_m3_per_h (encoding 3): NULL in a configuration written before schema 5.
   c.max_flow_m3_per_h = v.size() > 28 && v[28].index() == 2 ? std::get<double>(v[28]) : default_max_flow_m3_per_h;
+  // dew_margin_K (encoding 4): NULL in a configuration written before schema 7.
+  c.dew_margin_K = v.size() > 29 && v[29].index() == 2 ? std::get<double>(v[29]) : default_dew_margin_K;
   return c;
 }
 

@@ -25,6 +25,8 @@
 //                    a sample whose increment is above max_flow over the time it covers (the interval,
 //                    or the time since the previous sample when longer) is an alarm of its interval
 //                    (event bad_input, flags bad_input + alarm) and enters no register
+//   dew_margin     = K above the hydrocarbon dew temperature under which a converted line state is
+//                    flagged near_dew_point (default 5 K, 0 to 50; 0 turns the flag off)
 //   volume_unit    = m3 | ft3 | Mcf for reports (default m3)
 //   energy_unit    = MJ | GJ | kWh | MWh | MMBtu | therm for reports (default MJ)
 //   note           = free text
@@ -50,6 +52,7 @@ enum class Integration { per_sample, average_then_correct };
 [[nodiscard]] std::string_view integration_name(Integration i) noexcept;
 
 inline constexpr double default_max_flow_m3_per_h = 1e6;
+inline constexpr double default_dew_margin_K = 5.0;  // as EvalOptions::default_dew_margin_K
 
 // Throws io::InputError naming `field` when `s` is not valid UTF-8 or holds a control character.
 void check_identifier(std::string_view s, std::string_view field);
@@ -75,6 +78,7 @@ struct PointConfig {
   std::string energy_unit = "MJ";
   std::string note;
   double max_flow_m3_per_h = default_max_flow_m3_per_h;
+  double dew_margin_K = default_dew_margin_K;
 
 
   // Names of the settings that differ (empty: the same configuration).

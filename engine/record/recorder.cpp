@@ -38,6 +38,7 @@ std::string analysis_columns() {
 Recorder::Recorder(Log& log, const PointConfig& cfg, LineMethod& method, const RecordOptions& opt)
     : log_(log), cfg_(cfg), method_(method), opt_(opt) {
   if (opt_.batch_intervals < 1) opt_.batch_intervals = 1;
+  opt_.eval.dew_margin_K = cfg_.dew_margin_K;  // the point's own margin for near_dew_point
   load_state();
 }
 

@@ -32,9 +32,9 @@ enum class Table : std::size_t { log_header, point_config, gas_analysis, interva
 inline constexpr std::size_t table_count = 8;
 
 // The canonical encoding new records are written with.
-inline constexpr int latest_encoding = 3;
+inline constexpr int latest_encoding = 4;
 // encoding_schema[k]: the schema migration that added the columns of encoding k.
-inline constexpr std::array<int, latest_encoding + 1> encoding_schema{0, 1, 4, 5};
+inline constexpr std::array<int, latest_encoding + 1> encoding_schema{0, 1, 4, 5, 7};
 
 struct Column {
   std::string_view name;
@@ -53,7 +53,8 @@ inline constexpr Column point_config[] = {
     {"p_max_Pa", 1}, {"T_min_K", 1}, {"T_max_K", 1}, {"volume_unit", 1}, {"energy_unit", 1}, {"note", 1},
     {"corrects_seq", 1}, {"correction_reason", 1},
     {"engine_version", 2}, {"canon_version", 2},
-    {"max_flow_m3_per_h", 3}};
+    {"max_flow_m3_per_h", 3},
+    {"dew_margin_K", 4}};
 inline constexpr Column gas_analysis[] = {
     {"seq", 1}, {"point", 1}, {"valid_from_utc_s", 1}, {"sampled_utc_s", 1}, {"source", 1}, {"x_methane", 1},
     {"x_nitrogen", 1}, {"x_carbon_dioxide", 1}, {"x_ethane", 1}, {"x_propane", 1}, {"x_n_butane", 1}, {"x_isobutane", 1},
